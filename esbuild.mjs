@@ -1,0 +1,24 @@
+// Builds the three bundles: the VS Code client, the language server and the CLI.
+// `node esbuild.mjs` builds once; `node esbuild.mjs --watch` rebuilds on change.
+import * as esbuild from 'esbuild'
+
+const watch = process.argv.includes('--watch')
+const common = {
+  bundle: true,
+  platform: 'node',
+  format: 'cjs',
+  target: 'node20',
+  sourcemap: true,
+  logLevel: 'warning',
+}
+const builds = [
+  { ...common, entryPoints: ['client/src/extension.ts'], outfile: 'dist/client.js', external: ['vscode'] },
+  { ...common, entryPoints: ['server/src/lsp/main.ts'], outfile: 'dist/server.js' },
+  { ...common, entryPoints: ['server/src/cli/main.ts'], outfile: 'dist/cli.js', banner: { js: '#!/usr/bin/env node' } },
+]
+
+if (watch) {
+  for (const b of builds) await (await esbuild.context(b)).watch()
+} else {
+  await Promise.all(builds.map((b) => esbuild.build(b)))
+}

@@ -1,0 +1,78 @@
+// The Cellrun command line: `cellrun check FILE...` and `cellrun annotate FILE...`.
+// A thin layer over the same analysis core as the language server.
+import { readFileSync } from 'node:fs'
+import { analyze } from '../core/analyze'
+import { annotate, diagnosticLines, jsonReport } from '../core/report'
+
+const USAGE = `usage:
+  cellrun check [--format text|json] FILE...   report diagnostics; exit 1 when any is an error
+  cellrun annotate FILE...                     print each line with its computed values
+  cellrun --help | --version
+
+Diagnostics print as FILE:LINE:COLUMN: error|warning|note: MESSAGE [CODE] (1-based).
+Exit codes: 0 no errors, 1 errors found, 2 usage or file problems.`
+
+export function run(argv: string[], out: (s: string) => void, err: (s: string) => void): number {
+  const args = [...argv]
+  const cmd = args.shift()
+  if (!cmd || cmd === '--help' || cmd === '-h' || cmd === 'help') {
+    out(USAGE)
+    return cmd ? 0 : 2
+  }
+  if (cmd === '--version') {
+    out('cellrun 0.1.0')
+    return 0
+  }
+  if (cmd !== 'check' && cmd !== 'annotate') {
+    err(`cellrun: unknown command '${cmd}'\n${USAGE}`)
+    return 2
+  }
+  let format = 'text'
+  const files: string[] = []
+  for (let i = 0; i < args.length; i++) {
+    const a = args[i]
+    if (a === '--format') format = args[++i] ?? ''
+    else if (a.startsWith('--format=')) format = a.slice('--format='.length)
+    else if (a.startsWith('-')) {
+      err(`cellrun: unknown option '${a}'`)
+      return 2
+    } else files.push(a)
+  }
+  if (format !== 'text' && format !== 'json') {
+    err(`cellrun: --format must be text or json`)
+    return 2
+  }
+  if (files.length === 0) {
+    err(`cellrun: no files given\n${USAGE}`)
+    return 2
+  }
+  let errors = 0
+  let unreadable = 0
+  const reports = []
+  for (const file of files) {
+    let text: string
+    try {
+      text = readFileSync(file, 'utf8')
+    } catch (e) {
+      err(`cellrun: cannot read ${file}: ${e instanceof Error ? e.message : String(e)}`)
+      unreadable++
+      continue
+    }
+    const a = analyze(text)
+    errors += a.diagnostics.filter((d) => d.severity === 'error').length
+    if (cmd === 'annotate') out(annotate(a, file))
+    else if (format === 'json') reports.push(jsonReport(a, file))
+    else for (const l of diagnosticLines(a, file)) out(l)
+  }
+  if (cmd === 'check' && format === 'json') out(JSON.stringify({ files: reports }, null, 2))
+  if (unreadable > 0) return 2
+  return cmd === 'check' && errors > 0 ? 1 : 0
+}
+
+if (require.main === module) {
+  process.exitCode = run(
+    process.argv.slice(2),
+    (s) => process.stdout.write(s + '\n'),
+    (s) => process.stderr.write(s + '\n'),
+  )
+}

@@ -1,0 +1,142 @@
+// The entry point of the analysis core: text in, plain data out (syntax tree, model, computed
+// values, diagnostics, outline, hovers). No editor or LSP types are used anywhere in the core.
+import { RULES } from '../rules'
+import type { Diagnostic } from './diagnostics'
+import { prettyFormula } from './formula'
+import { buildModel, type Computed, type Model } from './model'
+import { parse } from './parser'
+import { LineIndex, type Span } from './positions'
+import type { LineNode, SyntaxTree } from './syntax'
+import { fmt } from './units'
+
+export interface Analysis {
+  text: string
+  index: LineIndex
+  tree: SyntaxTree
+  model: Model
+  computed: Computed[]
+  diagnostics: Diagnostic[]
+}
+
+export function analyze(text: string): Analysis {
+  const index = new LineIndex(text)
+  const tree = parse(text, index)
+  const model = buildModel(tree)
+  const diagnostics: Diagnostic[] = []
+  for (const rule of RULES) {
+    try {
+      diagnostics.push(...rule.check({ model, index }))
+    } catch (e) {
+      // A failing rule must not hide the others' findings.
+      diagnostics.push({
+        code: rule.code,
+        severity: 'hint',
+        message: `internal error in rule ${rule.code}: ${e instanceof Error ? e.message : String(e)}`,
+        span: { start: 0, end: 0 },
+        fixes: [],
+      })
+    }
+  }
+  diagnostics.sort((a, b) => a.span.start - b.span.start || a.span.end - b.span.end || a.code.localeCompare(b.code))
+  return { text, index, tree, model, computed: model.computed, diagnostics }
+}
+
+export interface Hover {
+  span: Span
+  /** Markdown. */
+  markdown: string
+}
+
+/** What to show when the pointer rests at `offset`: the working behind a computed value, or a formula's mass. */
+export function hoverAt(a: Analysis, offset: number): Hover | undefined {
+  const line = a.index.lineOf(offset)
+  const f = a.model.formulas.find((x) => x.line === line && offset >= x.tok.span.start && offset <= x.tok.span.end)
+  const here = a.computed.filter((c) => c.line === line && offset >= c.span.start && offset <= c.span.end)
+  const parts: string[] = []
+  if (f && f.formula.ok) {
+    const counts = [...f.formula.counts].map(([el, n]) => `${el}${n === 1 ? '' : ' ×' + fmt(n, 6)}`).join(', ')
+    parts.push(
+      `**${prettyFormula(f.formula.text)}**: M = ${fmt(f.formula.molarMass, 6)} g/mol` +
+        (f.formula.charge ? `, charge ${f.formula.charge > 0 ? '+' : ''}${f.formula.charge}` : '') +
+        `\n\n${counts}  \n*(IUPAC 2021 standard atomic weights)*`,
+    )
+  }
+  for (const c of here.filter((c) => !f || c.key !== 'charge.item' || (offset >= c.span.start && offset <= c.span.end))) {
+    parts.push(`**${c.title}**\n\n${c.working.map((w) => `    ${w}`).join('\n')}`)
+  }
+  if (parts.length === 0) return undefined
+  const span = f ? f.tok.span : here[0].span
+  return { span, markdown: parts.join('\n\n---\n\n') }
+}
+
+export interface OutlineItem {
+  name: string
+  detail: string
+  kind: 'run' | 'cell' | 'compartment' | 'separator' | 'electrode' | 'charge' | 'step' | 'expect' | 'observe' | 'value' | 'handling' | 'conditions'
+  span: Span
+  selection: Span
+  children: OutlineItem[]
+}
+
+/** The document outline: run, values, the cell and its parts, charges, steps, yields, handling. */
+export function outline(a: Analysis): OutlineItem[] {
+  const items: OutlineItem[] = []
+  let cell: OutlineItem | undefined
+  const item = (n: LineNode, kind: OutlineItem['kind'], name: string, detail: string, selection = n.span): OutlineItem => ({
+    name: name || kind,
+    detail,
+    kind,
+    span: n.span,
+    selection,
+    children: [],
+  })
+  for (const n of a.tree.lines) {
+    switch (n.kind) {
+      case 'run':
+        items.push(item(n, 'run', n.title.text, 'run'))
+        break
+      case 'conditions':
+        items.push(item(n, 'conditions', 'conditions', n.items.map((i) => i.text).join(', ')))
+        break
+      case 'let':
+        items.push(item(n, 'value', n.name.text, n.expr.text, n.name.span))
+        break
+      case 'cell':
+        cell = item(n, 'cell', 'cell', '')
+        items.push(cell)
+        break
+      case 'compartment':
+      case 'separator':
+      case 'electrode':
+      case 'vessel': {
+        const child =
+          n.kind === 'compartment'
+            ? item(n, 'compartment', n.name.text, n.volume.text, n.name.span)
+            : n.kind === 'separator'
+              ? item(n, 'separator', n.type.text, `${n.between[0].text} | ${n.between[1].text}`, n.type.span)
+              : n.kind === 'electrode'
+                ? item(n, 'electrode', n.role, `${n.material.text} in ${n.compartment.text}`, n.keyword?.span ?? n.span)
+                : item(n, 'separator', 'vessel', n.material.text)
+        if (cell && n.inCell) {
+          cell.children.push(child)
+          cell.span = { start: cell.span.start, end: n.span.end }
+        } else items.push(child)
+        break
+      }
+      case 'charge':
+        items.push(item(n, 'charge', `charge ${n.compartment.text}`, n.items.map((i) => i.formula.text).join(', '), n.compartment.span))
+        break
+      case 'step':
+        items.push(item(n, 'step', `step ${n.label.text}`, n.clauses.map((c) => `${c.keyword.text} ${c.expr.text}`).join(', '), n.label.span))
+        break
+      case 'expect':
+      case 'observe':
+        items.push(item(n, n.kind, `${n.kind} ${n.formula.text}`, n.quantity.text, n.formula.span))
+        break
+      case 'handling':
+        items.push(item(n, 'handling', `handling ${n.type.text}`, n.text.text, n.type.span))
+        break
+    }
+  }
+  return items
+}

@@ -1,0 +1,240 @@
+// Electrode chemistry of Cellrun v1: which electrode reaction forms a product named in an
+// `expect` or `observe` line, and how many electrons one formula unit of it takes.
+//
+// v1 knows: hydrogen + hydroxide at a cathode in water, oxygen or chlorine at an anode, acid formed
+// at an anode (H+ with the anion present), and metal deposition from a metal ion present. Charges
+// of metal ions come from the salts charged into the cell (CuSO4 -> Cu^2+), else from a table of
+// common ions.
+import { ATOMIC_WEIGHTS, ELEMENT_NAMES } from './elements'
+import { parseFormula, type Formula } from './formula'
+
+export interface Reaction {
+  electrode: 'anode' | 'cathode'
+  /** Electrons per formula unit of the product. */
+  electrons: number
+  /** Half-reaction (and follow-on reaction) as text. */
+  equation: string
+  /** Whether the product is a gas (volumes apply). */
+  gas: boolean
+  /** Why this reaction was chosen. */
+  reason: string
+  /** For a metal: its symbol. For a hydroxide: the cation. */
+  element?: string
+}
+
+export type ReactionLookup = { ok: true; reaction: Reaction } | { ok: false; why: string }
+
+/** Common anions: formula, element counts and charge. */
+const ANIONS: { name: string; counts: Record<string, number>; charge: number }[] = [
+  { name: 'SO4', counts: { S: 1, O: 4 }, charge: -2 },
+  { name: 'HSO4', counts: { H: 1, S: 1, O: 4 }, charge: -1 },
+  { name: 'NO3', counts: { N: 1, O: 3 }, charge: -1 },
+  { name: 'NO2', counts: { N: 1, O: 2 }, charge: -1 },
+  { name: 'CO3', counts: { C: 1, O: 3 }, charge: -2 },
+  { name: 'HCO3', counts: { H: 1, C: 1, O: 3 }, charge: -1 },
+  { name: 'OH', counts: { O: 1, H: 1 }, charge: -1 },
+  { name: 'Cl', counts: { Cl: 1 }, charge: -1 },
+  { name: 'Br', counts: { Br: 1 }, charge: -1 },
+  { name: 'I', counts: { I: 1 }, charge: -1 },
+  { name: 'F', counts: { F: 1 }, charge: -1 },
+  { name: 'ClO3', counts: { Cl: 1, O: 3 }, charge: -1 },
+  { name: 'ClO4', counts: { Cl: 1, O: 4 }, charge: -1 },
+  { name: 'ClO', counts: { Cl: 1, O: 1 }, charge: -1 },
+  { name: 'PO4', counts: { P: 1, O: 4 }, charge: -3 },
+  { name: 'HPO4', counts: { H: 1, P: 1, O: 4 }, charge: -2 },
+  { name: 'H2PO4', counts: { H: 2, P: 1, O: 4 }, charge: -1 },
+  { name: 'CN', counts: { C: 1, N: 1 }, charge: -1 },
+  { name: 'BF4', counts: { B: 1, F: 4 }, charge: -1 },
+  { name: 'NH2SO3', counts: { N: 1, H: 2, S: 1, O: 3 }, charge: -1 },
+  { name: 'CH3COO', counts: { C: 2, H: 3, O: 2 }, charge: -1 },
+  { name: 'CrO4', counts: { Cr: 1, O: 4 }, charge: -2 },
+  { name: 'Cr2O7', counts: { Cr: 2, O: 7 }, charge: -2 },
+]
+
+/** Metals whose ions are reduced to metal from water at a practical efficiency; usual ion charge. */
+const DEPOSITABLE: Record<string, number> = {
+  Cu: 2,
+  Ni: 2,
+  Zn: 2,
+  Ag: 1,
+  Au: 1,
+  Pb: 2,
+  Sn: 2,
+  Fe: 2,
+  Co: 2,
+  Cd: 2,
+  Cr: 3,
+  Mn: 2,
+  In: 3,
+  Bi: 3,
+  Sb: 3,
+  Pd: 2,
+  Pt: 2,
+  Rh: 3,
+}
+
+/** Metals that form hydroxides at a cathode but cannot be deposited from water. */
+const ALKALI_LIKE = new Set(['Li', 'Na', 'K', 'Rb', 'Cs', 'Mg', 'Ca', 'Sr', 'Ba', 'Al'])
+
+export interface SaltIons {
+  cation: string
+  cationCount: number
+  cationCharge: number
+  anion: string
+  anionCount: number
+  anionCharge: number
+}
+
+/** Split a neutral salt into its ions (hydrate water ignored): CuSO4·5H2O -> Cu^2+ + SO4^2-. */
+export function saltIons(f: Formula): SaltIons | undefined {
+  if (!f.ok || f.charge !== 0) return undefined
+  const counts = new Map(f.counts)
+  if (f.hydrateWater > 0) {
+    counts.set('H', (counts.get('H') ?? 0) - 2 * f.hydrateWater)
+    counts.set('O', (counts.get('O') ?? 0) - f.hydrateWater)
+    for (const [k, v] of [...counts]) if (v === 0) counts.delete(k)
+  }
+  for (const anion of ANIONS) {
+    const per = Object.entries(anion.counts)
+    let k = Infinity
+    for (const [el, n] of per) k = Math.min(k, Math.floor((counts.get(el) ?? 0) / n))
+    if (!Number.isFinite(k) || k < 1) continue
+    const rest = new Map(counts)
+    for (const [el, n] of per) rest.set(el, (rest.get(el) ?? 0) - n * k)
+    const left = [...rest].filter(([, v]) => v !== 0)
+    if (left.length !== 1 || left[0][1] <= 0) continue
+    const [cation, cationCount] = left[0]
+    if (cation === 'H' || !(cation in ATOMIC_WEIGHTS)) continue
+    const charge = (k * -anion.charge) / cationCount
+    if (!Number.isInteger(charge) || charge <= 0 || charge > 4) continue
+    return { cation, cationCount, cationCharge: charge, anion: anion.name, anionCount: k, anionCharge: anion.charge }
+  }
+  return undefined
+}
+
+/** Is this formula exactly one element (a metal or an element gas like Cl2)? */
+function singleElement(f: Formula): string | undefined {
+  if (f.counts.size !== 1 || f.charge !== 0) return undefined
+  return [...f.counts.keys()][0]
+}
+
+/**
+ * The electrode reaction that forms `product`, given the salts present in the compartment where it
+ * is expected (formulas as written in `charge` lines).
+ */
+export function productReaction(product: Formula, saltsPresent: readonly string[]): ReactionLookup {
+  if (!product.ok) return { ok: false, why: 'the formula has errors' }
+  const el = singleElement(product)
+  const count = el ? product.counts.get(el) : 0
+  if (el === 'H' && count === 2) {
+    return {
+      ok: true,
+      reaction: {
+        electrode: 'cathode',
+        electrons: 2,
+        gas: true,
+        equation: '2 H₂O + 2 e⁻ → H₂ + 2 OH⁻',
+        reason: 'hydrogen is evolved from water at the cathode',
+      },
+    }
+  }
+  if (el === 'O' && count === 2) {
+    return {
+      ok: true,
+      reaction: {
+        electrode: 'anode',
+        electrons: 4,
+        gas: true,
+        equation: '2 H₂O → O₂ + 4 H⁺ + 4 e⁻  (alkaline: 4 OH⁻ → O₂ + 2 H₂O + 4 e⁻)',
+        reason: 'oxygen is evolved from water at the anode',
+      },
+    }
+  }
+  if (el === 'Cl' && count === 2) {
+    return {
+      ok: true,
+      reaction: { electrode: 'anode', electrons: 2, gas: true, equation: '2 Cl⁻ → Cl₂ + 2 e⁻', reason: 'chlorine is evolved from chloride at the anode' },
+    }
+  }
+  if (el && count === 1) {
+    if (ALKALI_LIKE.has(el)) {
+      return { ok: false, why: `${ELEMENT_NAMES[el] ?? el} metal cannot be deposited from water: its ion is not reduced before water is` }
+    }
+    // Metal deposition: the ion charge from a salt present, else the usual ion.
+    let z: number | undefined
+    let from = ''
+    for (const s of saltsPresent) {
+      const ions = saltIons(parseFormula(s))
+      if (ions && ions.cation === el) {
+        z = ions.cationCharge
+        from = s
+        break
+      }
+    }
+    if (z === undefined && el in DEPOSITABLE) z = DEPOSITABLE[el]
+    if (z === undefined) return { ok: false, why: `no deposition reaction is known for ${el}` }
+    return {
+      ok: true,
+      reaction: {
+        electrode: 'cathode',
+        electrons: z,
+        gas: false,
+        element: el,
+        equation: `${el}${superscriptCharge(z)} + ${z} e⁻ → ${el}`,
+        reason: from ? `${el}${superscriptCharge(z)} comes from ${from} in the charge` : `${el}${superscriptCharge(z)} is its usual ion (no ${el} salt is charged)`,
+      },
+    }
+  }
+  // Hydroxides M(OH)n: hydroxide from water reduction at the cathode, paired with the cation.
+  const ions = saltIons(product)
+  if (ions && ions.anion === 'OH') {
+    const n = ions.anionCount / ions.cationCount
+    return {
+      ok: true,
+      reaction: {
+        electrode: 'cathode',
+        electrons: n,
+        gas: false,
+        element: ions.cation,
+        equation: `2 H₂O + 2 e⁻ → H₂ + 2 OH⁻;  ${ions.cation}${superscriptCharge(ions.cationCharge)} + ${n === 1 ? '' : n + ' '}OH⁻ → ${product.text}`,
+        reason: `hydroxide forms at the cathode and pairs with ${ions.cation}${superscriptCharge(ions.cationCharge)}`,
+      },
+    }
+  }
+  // Acids HnX: protons from water oxidation at the anode, paired with the anion present.
+  const h = product.counts.get('H') ?? 0
+  if (h > 0 && product.charge === 0) {
+    const rest = new Map(product.counts)
+    rest.delete('H')
+    const anion = ANIONS.find(
+      (a) => -a.charge === h && Object.keys(a.counts).length === rest.size && Object.entries(a.counts).every(([e, n]) => rest.get(e) === n),
+    )
+    if (anion && anion.name !== 'OH' && anion.name !== 'Cl') {
+      return {
+        ok: true,
+        reaction: {
+          electrode: 'anode',
+          electrons: h,
+          gas: false,
+          equation: `2 H₂O → O₂ + 4 H⁺ + 4 e⁻;  ${h === 1 ? '' : h + ' '}H⁺ + ${anion.name}${superscriptCharge(anion.charge)} → ${product.text}`,
+          reason: `acid forms at the anode as protons pair with ${anion.name}${superscriptCharge(anion.charge)}`,
+        },
+      }
+    }
+  }
+  return { ok: false, why: `Cellrun v1 knows no electrode reaction that forms ${product.text}` }
+}
+
+export function superscriptCharge(z: number): string {
+  const sup: Record<string, string> = { '0': '⁰', '1': '¹', '2': '²', '3': '³', '4': '⁴', '5': '⁵', '6': '⁶', '7': '⁷', '8': '⁸', '9': '⁹' }
+  const a = Math.abs(z)
+  const digits = a === 1 ? '' : String(a).replace(/\d/g, (d) => sup[d])
+  return digits + (z < 0 ? '⁻' : '⁺')
+}
+
+/** Does an electrode material name mean a soluble anode of this metal (e.g. `copper` for Cu)? */
+export function materialIsMetal(material: string, element: string): boolean {
+  const name = (ELEMENT_NAMES[element] ?? element).toLowerCase()
+  const m = material.toLowerCase()
+  return m === name || m === element.toLowerCase() || m.startsWith(name + '-') || m === 'oxygen-free-' + name
+}

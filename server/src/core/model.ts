@@ -1,0 +1,832 @@
+// The model: what a protocol states, with every expression evaluated, and what follows from it
+// (charge passed, amounts, concentrations, Faraday limits). Plain data; the rules in ../rules turn
+// the facts recorded here into diagnostics, and ./hints turns the computed values into hints.
+import { FARADAY, GAS_CONSTANT, DEFAULT_PRESSURE_PA, DEFAULT_TEMPERATURE_K, ZERO_CELSIUS, waterDensity } from './constants'
+import { productReaction, materialIsMetal, saltIons, type Reaction } from './chemistry'
+import { parseFormula, prettyFormula, type Formula } from './formula'
+import type { Span } from './positions'
+import type { ChargeItem, LineNode, SyntaxTree, Tok } from './syntax'
+import {
+  evaluateExpression,
+  fmt,
+  formatValue,
+  inKindUnit,
+  kindOf,
+  type ExprFailure,
+  type Kind,
+  type Value,
+} from './units'
+
+/** One evaluated expression and what was expected of it. */
+export interface QuantityFact {
+  line: number
+  expr: Tok
+  /** What the value is for, e.g. "the current of step 1". */
+  role: string
+  expected: readonly Kind[]
+  /** Set when evaluation failed. */
+  failure?: ExprFailure
+  value?: Value
+  kind?: Kind | 'other'
+  /** Value in the kind's stored unit (see KIND_UNIT), when the kind is one expected. */
+  number?: number
+  constraint?: 'positive' | 'non-negative' | 'fraction'
+  /** The clause keyword or statement keyword this expression follows (for quick fixes). */
+  keyword?: Tok
+}
+
+export interface FormulaFact {
+  line: number
+  tok: Tok
+  formula: Formula
+  isWater: boolean
+}
+
+export interface NameRef {
+  line: number
+  tok: Tok
+  /** What kind of name: a compartment. */
+  of: 'compartment'
+  resolved: boolean
+}
+
+export interface Declaration {
+  line: number
+  tok: Tok
+  of: 'value' | 'compartment'
+}
+
+export interface Compartment {
+  name: string
+  decl: Tok
+  line: number
+  volumeL?: number
+  /** Solutes by formula text (anhydrous part for hydrates). */
+  solutes: Map<string, { formula: Formula; mol: number; g: number; approximate: boolean }>
+  /** Water mass charged (g), including hydrate water and solution water; undefined when not known. */
+  waterG: number
+  waterKnown: boolean
+  /** Volume of liquid charged (L) where it can be told (water and solutions by volume). */
+  chargedVolumeL: number
+  lastChargeLine?: number
+}
+
+export interface Electrode {
+  line: number
+  role: 'anode' | 'cathode'
+  material: Tok
+  compartment: string
+  areaCm2?: number
+}
+
+export interface Separator {
+  line: number
+  type: Tok
+  between: [string, string]
+  areaCm2?: number
+}
+
+/** A value computed from the protocol, shown as a hint and explained in a hover. */
+export interface Computed {
+  line: number
+  /** What the hover applies to. */
+  span: Span
+  /** Where the hint goes. */
+  anchor: number
+  /** Stable key, e.g. "step.charge". */
+  key: string
+  /** Short label for the hint. */
+  label: string
+  /** Main value and its unit, for JSON output. */
+  value?: number
+  unit?: string
+  /** Hover title and the working, line by line. */
+  title: string
+  working: string[]
+}
+
+export interface StepFact {
+  line: number
+  label: string
+  span: Span
+  currentA?: number
+  /** Set when the current came from a current density. */
+  densityAm2?: number
+  voltageV?: number
+  seconds?: number
+  efficiency: number
+  chargeC?: number
+  hasCurrentClause: boolean
+  hasVoltageClause: boolean
+  hasDurationClause: boolean
+  usedArea?: { cm2: number; from: string }
+  /** A current density was given but no area is known to multiply it by. */
+  densityWithoutArea?: Span
+}
+
+export interface YieldFact {
+  line: number
+  kind: 'expect' | 'observe'
+  formula: FormulaFact
+  compartment?: Tok
+  quantity: QuantityFact
+  /** Stated amount in mol. */
+  mol?: number
+  reaction?: Reaction
+  noReaction?: string
+  /** Where the product forms is not where the line says. */
+  wrongCompartment?: { expected: 'anode' | 'cathode'; compartment: string }
+  /** Theoretical maximum in mol at 100 % efficiency, and with the steps' efficiencies. */
+  maxMol100?: number
+  maxMolEff?: number
+  /** Feed limit in mol, when one applies. */
+  limitMol?: number
+  limitWhy?: string
+}
+
+export interface Model {
+  tree: SyntaxTree
+  temperatureK: number
+  pressurePa: number
+  conditionsStated: { temperature: boolean; pressure: boolean }
+  values: Map<string, Value>
+  declarations: Declaration[]
+  refs: NameRef[]
+  quantities: QuantityFact[]
+  formulas: FormulaFact[]
+  compartments: Map<string, Compartment>
+  electrodes: Electrode[]
+  separators: Separator[]
+  vessel?: { line: number; material: Tok }
+  steps: StepFact[]
+  yields: YieldFact[]
+  handling: { line: number; type: Tok; text: Tok }[]
+  computed: Computed[]
+  totals: { chargeC: number; electronMol: number; effectiveElectronMol: number; seconds: number; energyJ?: number }
+}
+
+const CM2 = 1 // areas are kept in cm²
+
+export function buildModel(tree: SyntaxTree): Model {
+  const m: Model = {
+    tree,
+    temperatureK: DEFAULT_TEMPERATURE_K,
+    pressurePa: DEFAULT_PRESSURE_PA,
+    conditionsStated: { temperature: false, pressure: false },
+    values: new Map(),
+    declarations: [],
+    refs: [],
+    quantities: [],
+    formulas: [],
+    compartments: new Map(),
+    electrodes: [],
+    separators: [],
+    steps: [],
+    yields: [],
+    handling: [],
+    computed: [],
+    totals: { chargeC: 0, electronMol: 0, effectiveElectronMol: 0, seconds: 0 },
+  }
+  const ev = new Evaluator(m)
+
+  // Pass 1: named values, in order (a value may use the values defined above it).
+  for (const n of tree.lines) {
+    if (n.kind !== 'let') continue
+    m.declarations.push({ line: n.line, tok: n.name, of: 'value' })
+    const q = ev.quantity(n, n.expr, `the value of \`${n.name.text}\``, ANY_KIND)
+    if (q.value !== undefined && !m.values.has(n.name.text)) m.values.set(n.name.text, q.value)
+  }
+  // Pass 2: conditions and the cell.
+  for (const n of tree.lines) {
+    if (n.kind === 'conditions') ev.conditions(n)
+    else if (n.kind === 'compartment') {
+      m.declarations.push({ line: n.line, tok: n.name, of: 'compartment' })
+      const q = ev.quantity(n, n.volume, `the volume of compartment \`${n.name.text}\``, ['volume'], 'positive')
+      if (!m.compartments.has(n.name.text)) {
+        m.compartments.set(n.name.text, {
+          name: n.name.text,
+          decl: n.name,
+          line: n.line,
+          ...(q.number !== undefined ? { volumeL: q.number } : {}),
+          solutes: new Map(),
+          waterG: 0,
+          waterKnown: true,
+          chargedVolumeL: 0,
+        })
+      }
+    } else if (n.kind === 'vessel') {
+      m.vessel = { line: n.line, material: n.material }
+    }
+  }
+  for (const n of tree.lines) {
+    if (n.kind === 'separator') {
+      const [a, b] = n.between
+      ev.ref(n.line, a)
+      ev.ref(n.line, b)
+      const area = n.area ? ev.quantity(n, n.area, 'the separator area', ['area'], 'positive').number : undefined
+      m.separators.push({ line: n.line, type: n.type, between: [a.text, b.text], ...(area !== undefined ? { areaCm2: area * CM2 } : {}) })
+    } else if (n.kind === 'electrode') {
+      ev.ref(n.line, n.compartment)
+      const area = n.area ? ev.quantity(n, n.area, `the ${n.role} area`, ['area'], 'positive').number : undefined
+      m.electrodes.push({
+        line: n.line,
+        role: n.role,
+        material: n.material,
+        compartment: n.compartment.text,
+        ...(area !== undefined ? { areaCm2: area } : {}),
+      })
+    }
+  }
+  // Pass 3: charges, steps, yields, handling.
+  for (const n of tree.lines) {
+    if (n.kind === 'charge') ev.charge(n)
+    else if (n.kind === 'step') ev.step(n)
+    else if (n.kind === 'handling') m.handling.push({ line: n.line, type: n.type, text: n.text })
+  }
+  ev.compartmentSummaries()
+  ev.stepTotals()
+  for (const n of tree.lines) {
+    if (n.kind === 'expect' || n.kind === 'observe') ev.yieldLine(n)
+  }
+  return m
+}
+
+const ANY_KIND: readonly Kind[] = [
+  'dimensionless',
+  'mass',
+  'amount',
+  'volume',
+  'area',
+  'length',
+  'current',
+  'current-density',
+  'voltage',
+  'time',
+  'charge',
+  'temperature',
+  'pressure',
+  'molarity',
+  'mass-concentration',
+  'mass-fraction',
+  'energy',
+  'power',
+  'molar-mass',
+]
+
+const WATER_NAMES = new Set(['water', 'H2O'])
+
+class Evaluator {
+  constructor(private readonly m: Model) {}
+
+  quantity(
+    n: LineNode,
+    expr: Tok,
+    role: string,
+    expected: readonly Kind[],
+    constraint?: QuantityFact['constraint'],
+    keyword?: Tok,
+  ): QuantityFact {
+    const r = evaluateExpression(expr.text, this.m.values)
+    const fact: QuantityFact = { line: n.line, expr, role, expected, ...(constraint ? { constraint } : {}), ...(keyword ? { keyword } : {}) }
+    if (!r.ok) {
+      fact.failure = r.failure
+    } else {
+      fact.value = r.value
+      const k = kindOf(r.value)
+      fact.kind = k
+      if (k !== 'other' && expected.includes(k)) {
+        try {
+          fact.number = inKindUnit(r.value, k)
+        } catch {
+          // a unit mathjs cannot convert (should not happen for a matched kind)
+        }
+      }
+    }
+    this.m.quantities.push(fact)
+    return fact
+  }
+
+  ref(line: number, tok: Tok): boolean {
+    const resolved = this.m.compartments.has(tok.text)
+    this.m.refs.push({ line, tok, of: 'compartment', resolved })
+    return resolved
+  }
+
+  formula(line: number, tok: Tok): FormulaFact {
+    const isWater = WATER_NAMES.has(tok.text)
+    const f: FormulaFact = { line, tok, formula: parseFormula(isWater ? 'H2O' : tok.text), isWater }
+    this.m.formulas.push(f)
+    return f
+  }
+
+  conditions(n: Extract<LineNode, { kind: 'conditions' }>): void {
+    for (const item of n.items) {
+      const q = this.quantity(n, item, 'a run condition (temperature or pressure)', ['temperature', 'pressure'])
+      if (q.number === undefined) continue
+      if (q.kind === 'temperature') {
+        q.constraint = 'positive'
+        this.m.temperatureK = q.number
+        this.m.conditionsStated.temperature = true
+      } else if (q.kind === 'pressure') {
+        q.constraint = 'positive'
+        this.m.pressurePa = q.number
+        this.m.conditionsStated.pressure = true
+      }
+    }
+  }
+
+  charge(n: Extract<LineNode, { kind: 'charge' }>): void {
+    const known = this.ref(n.line, n.compartment)
+    const comp = known ? this.m.compartments.get(n.compartment.text) : undefined
+    const celsius = this.m.temperatureK - ZERO_CELSIUS
+    const rhoW = waterDensity(celsius) // g/mL
+    for (const item of n.items) {
+      const ff = this.formula(n.line, item.formula)
+      const f = ff.formula
+      const r = item.concentration ? this.solutionItem(n, item, ff, rhoW) : this.plainItem(n, item, ff, rhoW)
+      if (!r) continue
+      this.m.computed.push({
+        line: n.line,
+        span: item.span,
+        anchor: item.span.end,
+        key: 'charge.item',
+        label: r.label,
+        value: r.mol,
+        unit: 'mol',
+        title: `${prettyFormula(ff.isWater ? 'H2O' : item.formula.text)} charged`,
+        working: r.working,
+      })
+      if (!comp) continue
+      comp.lastChargeLine = n.line
+      comp.chargedVolumeL += r.volumeL ?? 0
+      if (r.waterG === undefined) comp.waterKnown = false
+      else comp.waterG += r.waterG
+      if (!ff.isWater && f.ok && r.mol !== undefined) {
+        const key = anhydrousKey(f)
+        const prev = comp.solutes.get(key.text)
+        const solG = r.mol * key.mass
+        comp.solutes.set(key.text, {
+          formula: key.formula,
+          mol: (prev?.mol ?? 0) + r.mol,
+          g: (prev?.g ?? 0) + solG,
+          approximate: (prev?.approximate ?? false) || r.approximate,
+        })
+      }
+    }
+  }
+
+  /** `FORMULA QUANTITY`: a solid by mass or amount, or water by volume or mass. */
+  private plainItem(n: LineNode, item: ChargeItem, ff: FormulaFact, rhoW: number): ItemResult | undefined {
+    const f = ff.formula
+    const kinds: Kind[] = ff.isWater ? ['volume', 'mass', 'amount'] : ['mass', 'amount']
+    const what = ff.isWater ? 'water' : item.formula.text
+    const q = this.quantity(n, item.quantity, `the amount of ${what}`, kinds, 'positive')
+    if (q.number === undefined) return undefined
+    const M = f.molarMass
+    const pf = prettyFormula(ff.isWater ? 'H2O' : item.formula.text)
+    const given = formatValue(q.value!)
+    if (q.kind === 'volume') {
+      const g = q.number * 1000 * rhoW
+      const mol = g / M
+      return {
+        mol,
+        waterG: g,
+        volumeL: q.number,
+        approximate: false,
+        label: `${fmt(g)} g · ${fmt(mol)} mol`,
+        working: [
+          `m = V·ρ = ${given} × ${fmt(rhoW, 5)} g/mL (water at ${fmt(this.m.temperatureK - ZERO_CELSIUS)} °C) = ${fmt(g, 4)} g`,
+          `n = m/M = ${fmt(g, 4)} g ÷ ${fmt(M, 5)} g/mol = ${fmt(mol, 4)} mol`,
+        ],
+      }
+    }
+    if (!f.ok || !Number.isFinite(M)) return undefined
+    if (q.kind === 'mass') {
+      const mol = q.number / M
+      const hydrate = f.hydrateWater > 0 ? f.hydrateWater * mol * WATER_M() : 0
+      return {
+        mol,
+        waterG: ff.isWater ? q.number : hydrate,
+        approximate: false,
+        label: `${fmt(mol)} mol`,
+        working: [
+          `n = m/M = ${given} ÷ ${fmt(M, 5)} g/mol = ${fmt(mol, 4)} mol ${pf}`,
+          ...(f.hydrateWater > 0 ? [`of which water of crystallisation: ${f.hydrateWater} × ${fmt(mol, 4)} mol × 18.015 g/mol = ${fmt(hydrate, 4)} g`] : []),
+        ],
+      }
+    }
+    // amount
+    const g = q.number * M
+    const hydrate = f.hydrateWater > 0 ? f.hydrateWater * q.number * WATER_M() : 0
+    return {
+      mol: q.number,
+      waterG: ff.isWater ? g : hydrate,
+      approximate: false,
+      label: `${fmt(g)} g`,
+      working: [`m = n·M = ${given} × ${fmt(M, 5)} g/mol = ${fmt(g, 4)} g ${pf}`],
+    }
+  }
+
+  /** `FORMULA solution QUANTITY at CONCENTRATION`. */
+  private solutionItem(n: LineNode, item: ChargeItem, ff: FormulaFact, rhoW: number): ItemResult | undefined {
+    const f = ff.formula
+    const what = item.formula.text
+    const q = this.quantity(n, item.quantity, `the amount of ${what} solution`, ['volume', 'mass'], 'positive')
+    const c = this.quantity(
+      n,
+      item.concentration!,
+      `the concentration of the ${what} solution`,
+      ['molarity', 'mass-concentration', 'mass-fraction'],
+      'positive',
+    )
+    if (q.number === undefined || c.number === undefined || !f.ok) return undefined
+    const M = f.molarMass
+    const given = formatValue(q.value!)
+    const conc = formatValue(c.value!)
+    const working: string[] = []
+    let soluteG: number
+    let solutionG: number | undefined
+    let approximate = false
+    let volumeL: number | undefined
+    if (q.kind === 'volume') {
+      volumeL = q.number
+      if (c.kind === 'molarity') {
+        soluteG = q.number * c.number * M
+        working.push(`n = V·c = ${given} × ${conc} = ${fmt(q.number * c.number, 4)} mol`)
+      } else if (c.kind === 'mass-concentration') {
+        soluteG = q.number * c.number
+        working.push(`m = V·c = ${given} × ${conc} = ${fmt(soluteG, 4)} g`)
+      } else {
+        approximate = true
+        solutionG = q.number * 1000 * rhoW
+        soluteG = (solutionG * c.number) / 100
+        working.push(
+          `≈ m = V·ρ·w = ${given} × ${fmt(rhoW, 4)} g/mL × ${conc} = ${fmt(soluteG, 4)} g`,
+          'approximate: the solution density is taken as that of water; state the solution by mass for an exact figure',
+        )
+      }
+    } else {
+      solutionG = q.number
+      if (c.kind === 'mass-fraction') {
+        soluteG = (q.number * c.number) / 100
+        working.push(`m = m_solution·w = ${given} × ${conc} = ${fmt(soluteG, 4)} g`)
+      } else {
+        approximate = true
+        volumeL = q.number / rhoW / 1000
+        soluteG = c.kind === 'molarity' ? volumeL * c.number * M : volumeL * c.number
+        working.push(
+          `≈ V = m/ρ = ${given} ÷ ${fmt(rhoW, 4)} g/mL = ${fmt(volumeL * 1000, 4)} mL;  solute ${fmt(soluteG, 4)} g`,
+          'approximate: the solution density is taken as that of water; state the solution by volume for an exact figure',
+        )
+      }
+    }
+    const mol = soluteG / M
+    working.push(`n = m/M = ${fmt(soluteG, 4)} g ÷ ${fmt(M, 5)} g/mol = ${fmt(mol, 4)} mol`)
+    const waterG = solutionG !== undefined ? solutionG - soluteG : undefined
+    if (waterG !== undefined) working.push(`water in the solution: ${fmt(waterG, 4)} g`)
+    return {
+      mol,
+      ...(waterG !== undefined ? { waterG } : {}),
+      ...(volumeL !== undefined ? { volumeL } : {}),
+      approximate,
+      label: `${approximate ? '≈ ' : ''}${fmt(soluteG)} g · ${fmt(mol)} mol ${prettyFormula(what)}`,
+      working,
+    }
+  }
+
+  compartmentSummaries(): void {
+    for (const comp of this.m.compartments.values()) {
+      if (comp.lastChargeLine === undefined) continue
+      const node = this.m.tree.lines[comp.lastChargeLine]
+      const parts: string[] = []
+      const working: string[] = []
+      let solutesG = 0
+      let approx = false
+      for (const [text, s] of comp.solutes) {
+        solutesG += s.g
+        approx ||= s.approximate
+        if (comp.volumeL) {
+          const c = s.mol / comp.volumeL
+          parts.push(`${prettyFormula(text)} ${fmt(c)} mol/L`)
+          working.push(`c(${prettyFormula(text)}) = n/V = ${fmt(s.mol, 4)} mol ÷ ${fmt(comp.volumeL, 4)} L = ${fmt(c, 4)} mol/L  (${fmt(s.g / comp.volumeL, 4)} g/L)`)
+        }
+      }
+      if (comp.waterKnown && comp.waterG > 0 && comp.solutes.size > 0) {
+        const total = comp.waterG + solutesG
+        for (const [text, s] of comp.solutes) {
+          const w = (100 * s.g) / total
+          working.push(`w(${prettyFormula(text)}) = ${fmt(s.g, 4)} g ÷ (${fmt(total, 4)} g of solution) = ${fmt(w, 3)} wt%`)
+          if (comp.solutes.size === 1) parts.push(`${fmt(w)} wt%`)
+        }
+      }
+      if (parts.length === 0) continue
+      working.push(
+        comp.volumeL
+          ? `V = ${fmt(comp.volumeL * 1000, 4)} mL, the volume declared for compartment ${comp.name}; solubility is not checked yet`
+          : 'no compartment volume: concentrations need `compartment NAME VOLUME`',
+      )
+      this.m.computed.push({
+        line: node.line,
+        span: node.span,
+        anchor: node.span.end,
+        key: 'compartment.contents',
+        label: `→ ${approx ? '≈ ' : ''}${parts.join(', ')} in ${comp.name}`,
+        title: `Contents of ${comp.name}`,
+        working,
+      })
+    }
+  }
+
+  anodeArea(): { cm2: number; from: string } | undefined {
+    const a = this.m.electrodes.find((e) => e.role === 'anode' && e.areaCm2 !== undefined)
+    if (a) return { cm2: a.areaCm2!, from: `anode ${a.material.text}` }
+    const c = this.m.electrodes.find((e) => e.role === 'cathode' && e.areaCm2 !== undefined)
+    if (c) return { cm2: c.areaCm2!, from: `cathode ${c.material.text}` }
+    return undefined
+  }
+
+  step(n: Extract<LineNode, { kind: 'step' }>): void {
+    const s: StepFact = {
+      line: n.line,
+      label: n.label.text,
+      span: n.span,
+      efficiency: 1,
+      hasCurrentClause: false,
+      hasVoltageClause: false,
+      hasDurationClause: false,
+    }
+    const stepName = `step ${n.label.text}`
+    for (const c of n.clauses) {
+      switch (c.keyword.text) {
+        case 'current': {
+          s.hasCurrentClause = true
+          const q = this.quantity(n, c.expr, `the current of ${stepName}`, ['current', 'current-density'], 'positive', c.keyword)
+          if (q.number === undefined) break
+          if (q.kind === 'current') s.currentA = q.number
+          else {
+            s.densityAm2 = q.number
+            const area = this.anodeArea()
+            if (area) {
+              s.usedArea = area
+              s.currentA = q.number * area.cm2 * 1e-4
+            } else s.densityWithoutArea = c.expr.span
+          }
+          break
+        }
+        case 'voltage': {
+          s.hasVoltageClause = true
+          const q = this.quantity(n, c.expr, `the cell voltage of ${stepName}`, ['voltage'], 'positive', c.keyword)
+          if (q.number !== undefined) s.voltageV = q.number
+          break
+        }
+        case 'for': {
+          s.hasDurationClause = true
+          const q = this.quantity(n, c.expr, `the duration of ${stepName}`, ['time'], 'positive', c.keyword)
+          if (q.number !== undefined) s.seconds = q.number
+          break
+        }
+        case 'efficiency': {
+          const q = this.quantity(n, c.expr, `the current efficiency of ${stepName}`, ['dimensionless'], 'fraction', c.keyword)
+          if (q.number !== undefined) s.efficiency = q.number
+          break
+        }
+      }
+    }
+    if (s.currentA !== undefined && s.seconds !== undefined) s.chargeC = s.currentA * s.seconds
+    this.m.steps.push(s)
+  }
+
+  stepTotals(): void {
+    const t = this.m.totals
+    let energyKnown = true
+    let energy = 0
+    for (const s of this.m.steps) {
+      if (s.seconds !== undefined) t.seconds += s.seconds
+      if (s.chargeC === undefined) {
+        energyKnown = false
+        continue
+      }
+      const Q = s.chargeC
+      const ne = Q / FARADAY
+      const eff = Math.min(Math.max(s.efficiency, 0), 1)
+      t.chargeC += Q
+      t.electronMol += ne
+      t.effectiveElectronMol += ne * eff
+      const Ah = Q / 3600
+      const working = [
+        s.densityAm2 !== undefined && s.usedArea
+          ? `I = j·A = ${fmt(s.densityAm2 / 10, 4)} mA/cm² × ${fmt(s.usedArea.cm2, 4)} cm² (${s.usedArea.from}) = ${fmt(s.currentA!, 4)} A`
+          : `I = ${fmt(s.currentA!, 4)} A`,
+        `Q = I·t = ${fmt(s.currentA!, 4)} A × ${formatDuration(s.seconds!)} = ${fmt(Ah, 4)} A·h = ${fmt(Q, 4)} C`,
+        `n(e⁻) = Q/F = ${fmt(Q, 4)} C ÷ ${fmt(FARADAY, 9)} C/mol = ${fmt(ne, 4)} mol`,
+      ]
+      const parts = [`${fmt(Ah)} A·h`, `${fmt(ne)} mol e⁻`]
+      if (eff < 1) {
+        working.push(`at ${fmt(eff * 100)} % current efficiency: ${fmt(ne * eff, 4)} mol e⁻ go to the product`)
+      }
+      const area = s.usedArea ?? this.anodeArea()
+      if (area && s.densityAm2 === undefined) {
+        const j = (s.currentA! / area.cm2) * 1000
+        parts.push(`${fmt(j)} mA/cm²`)
+        working.push(`j = I/A = ${fmt(s.currentA!, 4)} A ÷ ${fmt(area.cm2, 4)} cm² (${area.from}) = ${fmt(j, 4)} mA/cm²`)
+      } else if (s.usedArea) {
+        parts.unshift(`${fmt(s.currentA!)} A`)
+      }
+      if (s.voltageV !== undefined) {
+        const E = s.voltageV * Q
+        energy += E
+        parts.push(`${fmt(E / 3600)} W·h`)
+        working.push(`E = U·Q = ${fmt(s.voltageV, 4)} V × ${fmt(Ah, 4)} A·h = ${fmt(E / 3600, 4)} W·h`)
+      } else energyKnown = false
+      if (this.m.steps.length > 1 && s === this.m.steps[this.m.steps.length - 1]) {
+        parts.push(`Σ ${fmt(t.chargeC / 3600)} A·h`)
+        working.push(`all steps: Q = ${fmt(t.chargeC / 3600, 4)} A·h = ${fmt(t.chargeC, 4)} C, n(e⁻) = ${fmt(t.electronMol, 4)} mol`)
+      }
+      this.m.computed.push({
+        line: s.line,
+        span: s.span,
+        anchor: s.span.end,
+        key: 'step.charge',
+        label: parts.join(' · '),
+        value: Q,
+        unit: 'C',
+        title: `Charge passed in step ${s.label}`,
+        working,
+      })
+    }
+    if (energyKnown && this.m.steps.length > 0) t.energyJ = energy
+  }
+
+  yieldLine(n: Extract<LineNode, { kind: 'expect' | 'observe' }>): void {
+    const ff = this.formula(n.line, n.formula)
+    const f = ff.formula
+    const compName = n.compartment?.text
+    if (n.compartment) this.ref(n.line, n.compartment)
+    const comp = compName ? this.m.compartments.get(compName) : undefined
+    const saltsHere = this.saltsIn(compName)
+    const lookup = productReaction(f, saltsHere)
+    const gas = lookup.ok && lookup.reaction.gas
+    const kinds: Kind[] = gas ? ['mass', 'amount', 'volume'] : ['mass', 'amount']
+    const q = this.quantity(n, n.quantity, `the ${n.kind === 'expect' ? 'planned' : 'measured'} amount of ${n.formula.text}`, kinds, 'non-negative')
+    const y: YieldFact = { line: n.line, kind: n.kind, formula: ff, quantity: q, ...(n.compartment ? { compartment: n.compartment } : {}) }
+    this.m.yields.push(y)
+    if (!lookup.ok) {
+      if (f.ok) y.noReaction = lookup.why
+      return
+    }
+    const r = lookup.reaction
+    y.reaction = r
+    const M = f.molarMass
+    const Vm = (GAS_CONSTANT * this.m.temperatureK) / this.m.pressurePa // m³/mol
+    if (q.number !== undefined) {
+      y.mol = q.kind === 'mass' ? q.number / M : q.kind === 'amount' ? q.number : (q.number / 1000) / Vm
+    }
+    // Where does it form?
+    const electrodes = this.m.electrodes.filter((e) => e.role === r.electrode)
+    if (comp && electrodes.length > 0 && !electrodes.some((e) => e.compartment === comp.name)) {
+      y.wrongCompartment = { expected: r.electrode, compartment: comp.name }
+    }
+    if (this.m.steps.length === 0 || this.m.totals.electronMol === 0) return
+    y.maxMol100 = this.m.totals.electronMol / r.electrons
+    y.maxMolEff = this.m.totals.effectiveElectronMol / r.electrons
+    // Feed limits.
+    const limit = this.feedLimit(r, compName)
+    if (limit) {
+      y.limitMol = limit.mol
+      y.limitWhy = limit.why
+    }
+    const maxMol = Math.min(y.maxMolEff, y.limitMol ?? Infinity)
+    const toShown = (mol: number) =>
+      q.kind === 'volume' ? `${fmt(mol * Vm * 1000)} L` : q.kind === 'amount' ? `${fmt(mol)} mol` : `${fmt(mol * M)} g`
+    const pf = prettyFormula(n.formula.text)
+    const effNote = this.m.totals.effectiveElectronMol < this.m.totals.electronMol ? ' at the stated efficiencies' : ''
+    const working = [
+      `${r.electrode}: ${r.equation}  (${r.electrons} e⁻ per ${pf}; ${r.reason})`,
+      `n(e⁻) = ${fmt(this.m.totals.electronMol, 4)} mol over all steps${effNote ? `, ${fmt(this.m.totals.effectiveElectronMol, 4)} mol${effNote}` : ''}`,
+      `n(${pf}) ≤ n(e⁻)/${r.electrons} = ${fmt(y.maxMolEff, 4)} mol = ${fmt(y.maxMolEff * M, 4)} g`,
+    ]
+    if (gas) {
+      working.push(
+        `gas volume at ${fmt(this.m.temperatureK - ZERO_CELSIUS)} °C and ${fmt(this.m.pressurePa / 1000, 5)} kPa: V = nRT/p = ${fmt(y.maxMolEff * Vm * 1000, 4)} L (ideal gas)`,
+      )
+    }
+    if (y.limitMol !== undefined) working.push(`feed limit: ${y.limitWhy}: ${fmt(y.limitMol, 4)} mol = ${fmt(y.limitMol * M, 4)} g`)
+    const planned = y.mol
+    if (n.kind === 'expect') {
+      const label =
+        `max ${toShown(maxMol)}${y.limitMol !== undefined && y.limitMol < y.maxMolEff ? ' (feed-limited)' : ''}` +
+        (planned !== undefined && maxMol > 0 ? ` · plan ${fmt((100 * planned) / maxMol)} % of max` : '')
+      this.m.computed.push({
+        line: n.line,
+        span: n.span,
+        anchor: n.span.end,
+        key: 'expect.max',
+        label,
+        value: maxMol * M,
+        unit: 'g',
+        title: `Theoretical ${pf} (Faraday's law)`,
+        working,
+      })
+    } else if (planned !== undefined && y.maxMol100 > 0) {
+      const ce = planned / y.maxMol100
+      working.push(`current efficiency = measured ÷ n(e⁻)/${r.electrons} at 100 % = ${fmt(planned, 4)} mol ÷ ${fmt(y.maxMol100, 4)} mol = ${fmt(ce * 100, 3)} %`)
+      this.m.computed.push({
+        line: n.line,
+        span: n.span,
+        anchor: n.span.end,
+        key: 'observe.efficiency',
+        label: `current efficiency ${fmt(ce * 100)} %`,
+        value: ce,
+        unit: '1',
+        title: `Current efficiency for ${pf}`,
+        working,
+      })
+    }
+  }
+
+  /** Salts (formula texts) charged into a compartment, or anywhere when no compartment is named. */
+  private saltsIn(comp: string | undefined): string[] {
+    const out: string[] = []
+    for (const n of this.m.tree.lines) {
+      if (n.kind !== 'charge') continue
+      if (comp && n.compartment.text !== comp) continue
+      for (const it of n.items) if (!WATER_NAMES.has(it.formula.text)) out.push(it.formula.text)
+    }
+    if (out.length === 0 && comp) return this.saltsIn(undefined)
+    return out
+  }
+
+  /** The most of a product the charged feed allows, where v1 can tell. */
+  private feedLimit(r: Reaction, compName: string | undefined): { mol: number; why: string } | undefined {
+    if (!r.element) return undefined
+    const el = r.element
+    const cathodes = this.m.electrodes.filter((e) => e.role === 'cathode')
+    const anodes = this.m.electrodes.filter((e) => e.role === 'anode')
+    const cathodeComp = compName ?? cathodes[0]?.compartment
+    if (!cathodeComp) return undefined
+    // Metal deposition: limited by the metal ion in the compartment, unless a soluble anode of that metal feeds it.
+    const isHydroxide = r.equation.includes('OH⁻ →')
+    if (!isHydroxide) {
+      if (anodes.some((a) => materialIsMetal(a.material.text, el))) return undefined
+      const mol = this.elementMolIn(cathodeComp, el, false)
+      return mol > 0 ? { mol, why: `${el} in the ${cathodeComp} charge` } : undefined
+    }
+    // Hydroxide: the cation must reach the cathode. Through a cation-exchange membrane it comes from
+    // the anode side; in a single compartment it comes from the salts there (not counting hydroxide).
+    const sep = this.m.separators.find((s) => s.between.includes(cathodeComp))
+    if (sep && sep.type.text === 'cation-exchange') {
+      const other = sep.between[0] === cathodeComp ? sep.between[1] : sep.between[0]
+      const mol = this.elementMolIn(other, el, true)
+      return mol > 0 ? { mol, why: `${el}⁺ available to cross from ${other}` } : undefined
+    }
+    if (!sep && this.m.compartments.size <= 1) {
+      const mol = this.elementMolIn(cathodeComp, el, false)
+      return mol > 0 ? { mol, why: `${el} in salts other than the hydroxide in ${cathodeComp}` } : undefined
+    }
+    return undefined
+  }
+
+  /** Moles of an element as cation in the salts charged into a compartment. */
+  private elementMolIn(comp: string, el: string, includeHydroxide: boolean): number {
+    const c = this.m.compartments.get(comp)
+    if (!c) return 0
+    let mol = 0
+    for (const s of c.solutes.values()) {
+      const ions = saltIons(s.formula)
+      if (!ions || ions.cation !== el) continue
+      if (!includeHydroxide && ions.anion === 'OH') continue
+      mol += s.mol * ions.cationCount
+    }
+    return mol
+  }
+}
+
+interface ItemResult {
+  mol?: number
+  waterG?: number
+  volumeL?: number
+  approximate: boolean
+  label: string
+  working: string[]
+}
+
+let waterM: number | undefined
+function WATER_M(): number {
+  waterM ??= parseFormula('H2O').molarMass
+  return waterM
+}
+
+/** The anhydrous part of a hydrate, as the solute. */
+function anhydrousKey(f: Formula): { text: string; formula: Formula; mass: number } {
+  if (f.hydrateWater <= 0) return { text: f.text, formula: f, mass: f.molarMass }
+  const base = f.text.split(/[·•*.]/)[0]
+  const bf = parseFormula(base)
+  if (bf.ok) return { text: base, formula: bf, mass: f.molarMass - f.hydrateWater * WATER_M() }
+  return { text: f.text, formula: f, mass: f.molarMass }
+}
+
+function formatDuration(s: number): string {
+  if (s >= 3600) return `${fmt(s / 3600, 4)} h`
+  if (s >= 60) return `${fmt(s / 60, 4)} min`
+  return `${fmt(s, 4)} s`
+}

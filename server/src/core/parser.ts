@@ -1,0 +1,453 @@
+// The line parser. It never throws: each line becomes exactly one node; a line it cannot read
+// becomes an `error` node with a message, and parsing goes on with the next line.
+import { LineIndex, type Span } from './positions'
+import {
+  CELL_KEYWORDS,
+  STATEMENT_KEYWORDS,
+  STEP_CLAUSES,
+  type ChargeItem,
+  type Clause,
+  type LineNode,
+  type SyntaxTree,
+  type Tok,
+} from './syntax'
+import { closest } from './text'
+
+export function parse(text: string, index = new LineIndex(text)): SyntaxTree {
+  const lines: LineNode[] = []
+  let inCell = false
+  for (let line = 0; line < index.lineCount; line++) {
+    let node: LineNode
+    try {
+      node = parseLine(index.lineText(line), index.lineStart(line), line, inCell)
+    } catch (e) {
+      // Defensive: a bug in a line parser must not take the document down.
+      const start = index.lineStart(line)
+      const end = index.lineEnd(line)
+      node = {
+        kind: 'error',
+        line,
+        indent: 0,
+        span: { start, end },
+        message: `internal parser error: ${e instanceof Error ? e.message : String(e)}`,
+        errorSpan: { start, end },
+      }
+    }
+    if (node.kind === 'cell') inCell = true
+    else if (node.kind !== 'blank' && node.indent === 0) inCell = false
+    lines.push(node)
+  }
+  return { text, lines }
+}
+
+/** Where the comment starts (`#` outside double quotes), or -1. */
+export function commentStart(s: string): number {
+  let quoted = false
+  for (let i = 0; i < s.length; i++) {
+    const c = s[i]
+    if (c === '"') quoted = !quoted
+    else if (c === '#' && !quoted) return i
+  }
+  return -1
+}
+
+class LineError extends Error {
+  constructor(
+    message: string,
+    readonly at: number,
+    readonly end?: number,
+    readonly fix?: { start: number; end: number; newText: string; title: string },
+  ) {
+    super(message)
+  }
+}
+
+function parseLine(raw: string, base: number, line: number, inCell: boolean): LineNode {
+  const hash = commentStart(raw)
+  const comment: Span | undefined = hash >= 0 ? { start: base + hash, end: base + raw.length } : undefined
+  const body = hash >= 0 ? raw.slice(0, hash) : raw
+  const indent = body.length - body.trimStart().length
+  const content = body.trimEnd()
+  const span: Span = { start: base + Math.min(indent, content.length), end: base + content.length }
+  const common = { line, indent, span, ...(comment ? { comment } : {}) }
+  if (content.trim() === '') return { kind: 'blank', ...common }
+
+  const kwMatch = /^[A-Za-z][A-Za-z-]*/.exec(content.slice(indent))
+  const kwText = kwMatch ? kwMatch[0] : ''
+  const keyword: Tok = { text: kwText, span: { start: base + indent, end: base + indent + kwText.length } }
+  const s = new Cursor(content, base, indent + kwText.length)
+  try {
+    if (!kwMatch || !(STATEMENT_KEYWORDS as readonly string[]).includes(kwText)) {
+      const word = content.slice(indent).split(/[\s:]/)[0]
+      const guess = closest(word, STATEMENT_KEYWORDS)
+      throw new LineError(
+        kwText ? `unknown statement \`${word}\`` : 'a statement must start with a keyword',
+        indent,
+        indent + word.length,
+        guess ? { start: indent, end: indent + word.length, newText: guess, title: `Change to \`${guess}\`` } : undefined,
+      )
+    }
+    const isCellChild = (CELL_KEYWORDS as readonly string[]).includes(kwText)
+    const childOfCell = isCellChild && inCell && indent > 0
+    const k = { ...common, keyword }
+    switch (kwText) {
+      case 'run': {
+        s.ws()
+        const title = s.quoted() ?? s.restTok('a title, e.g. `run "KOH batch 7"`')
+        s.end()
+        return { kind: 'run', ...k, title }
+      }
+      case 'note': {
+        s.ws()
+        return { kind: 'note', ...k, text: s.restTok('the note text') }
+      }
+      case 'conditions': {
+        s.ws()
+        const items = s.splitTop(',', s.rest()).map((t) => s.needExpr(t, 'a temperature or pressure'))
+        return { kind: 'conditions', ...k, items }
+      }
+      case 'let': {
+        s.ws1('a name')
+        const name = s.ident('a name, e.g. `let area = 36 cm^2`')
+        s.ws()
+        s.lit('=', '`=` after the name')
+        s.ws()
+        return { kind: 'let', ...k, name, expr: s.restTok('a value after `=`') }
+      }
+      case 'cell':
+        s.ws()
+        s.end('`cell` stands alone on its line; its parts follow, indented')
+        return { kind: 'cell', ...k }
+      case 'vessel': {
+        s.ws1('a material')
+        const material = s.word('a vessel material, e.g. `vessel polypropylene`')
+        s.end()
+        return { kind: 'vessel', ...k, material, inCell: childOfCell }
+      }
+      case 'compartment': {
+        s.ws1('a name')
+        const name = s.ident('a compartment name, e.g. `compartment anolyte 500 mL`')
+        s.ws1('a volume')
+        const volume = s.restTok('the liquid volume, e.g. `500 mL`')
+        return { kind: 'compartment', ...k, name, volume, inCell: childOfCell }
+      }
+      case 'separator': {
+        s.ws1('a separator kind')
+        const type = s.word('a separator kind: cation-exchange, anion-exchange, diaphragm or none')
+        s.ws1('`between`')
+        s.kw('between')
+        s.ws1('a compartment')
+        const a = s.ident('a compartment name')
+        s.ws1('`and`')
+        s.kw('and')
+        s.ws1('a compartment')
+        const b = s.ident('a compartment name')
+        const area = s.optionalArea()
+        return { kind: 'separator', ...k, type, between: [a, b], ...(area ? { area } : {}), inCell: childOfCell }
+      }
+      case 'anode':
+      case 'cathode': {
+        s.ws1('a material')
+        const material = s.word(`an electrode material, e.g. \`${kwText} nickel in catholyte\``)
+        s.ws1('`in`')
+        s.kw('in')
+        s.ws1('a compartment')
+        const compartment = s.ident('a compartment name')
+        const area = s.optionalArea()
+        return {
+          kind: 'electrode',
+          ...k,
+          role: kwText as 'anode' | 'cathode',
+          material,
+          compartment,
+          ...(area ? { area } : {}),
+          inCell: childOfCell,
+        }
+      }
+      case 'charge': {
+        s.ws1('a compartment')
+        const compartment = s.ident('a compartment name, e.g. `charge anolyte: NaCl 300 g`')
+        s.ws()
+        s.lit(':', '`:` after the compartment name')
+        s.ws()
+        const items = s.splitTop(',', s.rest()).map((t) => parseChargeItem(s, t))
+        if (items.length === 0) throw new LineError('expected what is charged, e.g. `NaCl 300 g, water 1 L`', s.pos)
+        return { kind: 'charge', ...k, compartment, items }
+      }
+      case 'step': {
+        s.ws1('a step label')
+        const label = s.word('a step label, e.g. `step 1:`')
+        s.ws()
+        s.lit(':', '`:` after the step label')
+        s.ws()
+        const clauses = parseClauses(s)
+        return { kind: 'step', ...k, label, clauses }
+      }
+      case 'expect':
+      case 'observe': {
+        s.ws1('a substance')
+        const formula = s.word(`a substance and amount, e.g. \`${kwText} KOH 25 g in catholyte\``)
+        s.ws1('an amount')
+        const restTok = s.restTok('an amount, e.g. `25 g`')
+        const inMatch = /\s+in\s+([A-Za-z_][\w-]*)\s*$/.exec(restTok.text)
+        if (inMatch) {
+          const qEnd = restTok.text.length - inMatch[0].length
+          const nameStart = restTok.span.start + restTok.text.length - inMatch[1].length
+          return {
+            kind: kwText as 'expect' | 'observe',
+            ...k,
+            formula,
+            quantity: { text: restTok.text.slice(0, qEnd), span: { start: restTok.span.start, end: restTok.span.start + qEnd } },
+            compartment: { text: inMatch[1], span: { start: nameStart, end: nameStart + inMatch[1].length } },
+          }
+        }
+        return { kind: kwText as 'expect' | 'observe', ...k, formula, quantity: restTok }
+      }
+      case 'handling': {
+        s.ws1('a kind')
+        const type = s.word('a handling kind, e.g. `handling vent: ...`')
+        s.ws()
+        s.lit(':', '`:` after the handling kind')
+        s.ws()
+        return { kind: 'handling', ...k, type, text: s.restTok('what is arranged, e.g. `handling vent: H2 piped outdoors`') }
+      }
+    }
+    throw new LineError(`unknown statement \`${kwText}\``, indent, indent + kwText.length)
+  } catch (e) {
+    if (!(e instanceof LineError)) throw e
+    const at = Math.min(e.at, content.length)
+    const end = Math.max(at, Math.min(e.end ?? content.length, content.length))
+    return {
+      kind: 'error',
+      ...common,
+      ...(kwMatch ? { keyword } : {}),
+      message: e.message,
+      errorSpan: { start: base + at, end: base + (end === at && at < content.length ? at + 1 : end) },
+      ...(e.fix
+        ? { fix: { span: { start: base + e.fix.start, end: base + e.fix.end }, newText: e.fix.newText, title: e.fix.title } }
+        : {}),
+    }
+  }
+}
+
+function parseChargeItem(s: Cursor, t: Tok): ChargeItem {
+  const m = /^(\S+)(\s+)(.*)$/s.exec(t.text)
+  if (!m) {
+    throw new LineError(
+      `expected a substance and its amount, e.g. \`NaCl 300 g\`; found \`${t.text}\``,
+      t.span.start - s.base,
+      t.span.end - s.base,
+    )
+  }
+  const formula: Tok = { text: m[1], span: { start: t.span.start, end: t.span.start + m[1].length } }
+  const restStart = t.span.start + m[1].length + m[2].length
+  const rest = m[3]
+  const sol = /^solution(\s+)(.*?)\s+at\s+(.+)$/s.exec(rest)
+  if (sol) {
+    const qStart = restStart + 'solution'.length + sol[1].length
+    const cStart = restStart + rest.length - sol[3].length
+    return {
+      span: t.span,
+      formula,
+      quantity: { text: sol[2], span: { start: qStart, end: qStart + sol[2].length } },
+      concentration: { text: sol[3], span: { start: cStart, end: cStart + sol[3].length } },
+    }
+  }
+  if (/^solution\b/.test(rest)) {
+    throw new LineError(
+      'a solution needs its amount and concentration: `FORMULA solution 1 L at 0.5 mol/L`',
+      restStart - s.base,
+      t.span.end - s.base,
+    )
+  }
+  return { span: t.span, formula, quantity: { text: rest, span: { start: restStart, end: restStart + rest.length } } }
+}
+
+function parseClauses(s: Cursor): Clause[] {
+  const clauses: Clause[] = []
+  const body = s.rest()
+  if (body.text.trim() === '') throw new LineError('expected what the step does, e.g. `current 2 A for 3 h`', s.pos)
+  for (const piece of s.splitTop(',', body)) {
+    // `for` may follow a clause without a comma: `current 2 A for 3 h`.
+    for (const part of splitWord(piece, 'for')) {
+      const m = /^([A-Za-z][A-Za-z-]*)(\s*)(.*)$/s.exec(part.text)
+      const word = m ? m[1] : part.text.split(/\s/)[0]
+      if (!m || !(STEP_CLAUSES as readonly string[]).includes(m[1])) {
+        const guess = closest(word, STEP_CLAUSES)
+        const at = part.span.start - s.base
+        throw new LineError(
+          `unknown step clause \`${word}\`; expected ${STEP_CLAUSES.map((c) => `\`${c}\``).join(', ')}`,
+          at,
+          at + word.length,
+          guess ? { start: at, end: at + word.length, newText: guess, title: `Change to \`${guess}\`` } : undefined,
+        )
+      }
+      const kwTok: Tok = { text: m[1], span: { start: part.span.start, end: part.span.start + m[1].length } }
+      const exprStart = part.span.start + m[1].length + m[2].length
+      if (m[3].trim() === '') {
+        throw new LineError(`\`${m[1]}\` needs a value`, kwTok.span.start - s.base, kwTok.span.end - s.base)
+      }
+      clauses.push({ span: part.span, keyword: kwTok, expr: { text: m[3], span: { start: exprStart, end: exprStart + m[3].length } } })
+    }
+  }
+  return clauses
+}
+
+/** Split a token at a standalone word outside parentheses, keeping the word with the part it starts. */
+function splitWord(t: Tok, word: string): Tok[] {
+  const out: Tok[] = []
+  let depth = 0
+  let from = 0
+  const re = new RegExp(`^${word}\\b`)
+  for (let i = 0; i < t.text.length; i++) {
+    const c = t.text[i]
+    if (c === '(' || c === '[') depth++
+    else if (c === ')' || c === ']') depth--
+    else if (depth === 0 && i > from && /\s/.test(t.text[i - 1]) && re.test(t.text.slice(i))) {
+      out.push(trimTok(t, from, i))
+      from = i
+    }
+  }
+  out.push(trimTok(t, from, t.text.length))
+  return out.filter((p) => p.text.length > 0)
+}
+
+function trimTok(t: Tok, from: number, to: number): Tok {
+  const raw = t.text.slice(from, to)
+  const lead = raw.length - raw.trimStart().length
+  const text = raw.trim()
+  const start = t.span.start + from + lead
+  return { text, span: { start, end: start + text.length } }
+}
+
+/** A reading position in one line's content. Offsets in errors are relative to the line start. */
+class Cursor {
+  constructor(
+    readonly s: string,
+    readonly base: number,
+    public pos: number,
+  ) {}
+
+  tok(from: number, to: number): Tok {
+    return { text: this.s.slice(from, to), span: { start: this.base + from, end: this.base + to } }
+  }
+
+  ws(): void {
+    while (this.pos < this.s.length && /\s/.test(this.s[this.pos])) this.pos++
+  }
+
+  /** At least one space, or the line is incomplete. */
+  ws1(what: string): void {
+    if (this.pos >= this.s.length) throw new LineError(`expected ${what}`, this.pos)
+    if (!/\s/.test(this.s[this.pos])) throw new LineError(`expected a space before ${what}`, this.pos)
+    this.ws()
+  }
+
+  private match(re: RegExp): string | null {
+    const m = re.exec(this.s.slice(this.pos))
+    return m ? m[0] : null
+  }
+
+  ident(what: string): Tok {
+    const m = this.match(/^[A-Za-z_][A-Za-z0-9_-]*/)
+    if (!m) throw new LineError(`expected ${what}`, this.pos, this.nextSpace())
+    const t = this.tok(this.pos, this.pos + m.length)
+    this.pos += m.length
+    return t
+  }
+
+  /** A word: anything up to white space, a comma or a colon. */
+  word(what: string): Tok {
+    const m = this.match(/^[^\s,:]+/)
+    if (!m) throw new LineError(`expected ${what}`, this.pos, this.nextSpace())
+    const t = this.tok(this.pos, this.pos + m.length)
+    this.pos += m.length
+    return t
+  }
+
+  kw(word: string): void {
+    const m = this.match(/^[A-Za-z-]+/)
+    if (m !== word) {
+      throw new LineError(
+        `expected \`${word}\`${m ? `, found \`${m}\`` : ''}`,
+        this.pos,
+        this.pos + (m?.length ?? 1),
+        m ? { start: this.pos, end: this.pos + m.length, newText: word, title: `Change to \`${word}\`` } : undefined,
+      )
+    }
+    this.pos += word.length
+  }
+
+  lit(ch: string, what: string): void {
+    if (this.s[this.pos] !== ch) throw new LineError(`expected ${what}`, this.pos, this.pos + 1)
+    this.pos++
+  }
+
+  quoted(): Tok | null {
+    if (this.s[this.pos] !== '"') return null
+    const close = this.s.indexOf('"', this.pos + 1)
+    if (close < 0) throw new LineError('the closing `"` is missing', this.pos, this.s.length)
+    const t = this.tok(this.pos + 1, close)
+    this.pos = close + 1
+    return t
+  }
+
+  rest(): Tok {
+    const t = this.tok(this.pos, this.s.length)
+    this.pos = this.s.length
+    return t
+  }
+
+  restTok(what: string): Tok {
+    if (this.pos >= this.s.length) throw new LineError(`expected ${what}`, this.pos)
+    return this.rest()
+  }
+
+  end(message?: string): void {
+    this.ws()
+    if (this.pos < this.s.length) throw new LineError(message ?? `unexpected \`${this.s.slice(this.pos)}\` at the end of the line`, this.pos)
+  }
+
+  nextSpace(): number {
+    const m = /[\s,:]/.exec(this.s.slice(this.pos))
+    return m ? this.pos + m.index : this.s.length
+  }
+
+  /** `, area EXPR` at the end of a cell line. */
+  optionalArea(): Tok | undefined {
+    this.ws()
+    if (this.pos >= this.s.length) return undefined
+    this.lit(',', '`, area ...` or the end of the line')
+    this.ws()
+    this.kw('area')
+    this.ws1('an area')
+    return this.restTok('an area, e.g. `36 cm^2`')
+  }
+
+  needExpr(t: Tok, what: string): Tok {
+    if (t.text === '') throw new LineError(`expected ${what}`, t.span.start - this.base)
+    return t
+  }
+
+  /** Split a token at a separator outside parentheses and brackets; parts are trimmed. */
+  splitTop(sep: string, t: Tok): Tok[] {
+    if (t.text.trim() === '') return []
+    const out: Tok[] = []
+    let depth = 0
+    let from = 0
+    for (let i = 0; i < t.text.length; i++) {
+      const c = t.text[i]
+      if (c === '(' || c === '[') depth++
+      else if (c === ')' || c === ']') depth--
+      else if (c === sep && depth <= 0) {
+        out.push(trimTok(t, from, i))
+        from = i + 1
+      }
+    }
+    out.push(trimTok(t, from, t.text.length))
+    for (const p of out) {
+      if (p.text === '') throw new LineError(`an empty item between \`${sep}\``, p.span.start - this.base, p.span.start - this.base + 1)
+    }
+    return out
+  }
+}

@@ -1,0 +1,111 @@
+// Text and JSON reports of an analysis, shared by the CLI and the tests (pure functions).
+import type { Analysis } from './analyze'
+import type { Diagnostic } from './diagnostics'
+import { FARADAY } from './constants'
+import { fmt } from './units'
+
+export const SEVERITY_WORD: Record<Diagnostic['severity'], string> = {
+  error: 'error',
+  warning: 'warning',
+  information: 'note',
+  hint: 'note',
+}
+
+/** GNU-style lines: `file:line:col: error: message [code]` (1-based line and column). */
+export function diagnosticLines(a: Analysis, file: string): string[] {
+  return a.diagnostics.map((d) => {
+    const p = a.index.humanAt(d.span.start)
+    return `${file}:${p.line}:${p.column}: ${SEVERITY_WORD[d.severity]}: ${d.message} [${d.code}]`
+  })
+}
+
+export interface JsonReport {
+  file: string
+  diagnostics: {
+    line: number
+    column: number
+    endLine: number
+    endColumn: number
+    severity: Diagnostic['severity']
+    code: string
+    message: string
+    fixes: { title: string; edits: { line: number; column: number; endLine: number; endColumn: number; newText: string }[] }[]
+  }[]
+  computed: { line: number; key: string; label: string; value?: number; unit?: string; title: string; working: string[] }[]
+  totals: { chargeC: number; chargeAh: number; electronMol: number; effectiveElectronMol: number; hours: number; energyWh?: number }
+  conditions: { temperatureK: number; pressurePa: number; stated: { temperature: boolean; pressure: boolean } }
+  constants: { faraday: number }
+}
+
+export function jsonReport(a: Analysis, file: string): JsonReport {
+  const at = (o: number) => a.index.humanAt(o)
+  const t = a.model.totals
+  return {
+    file,
+    diagnostics: a.diagnostics.map((d) => {
+      const s = at(d.span.start)
+      const e = at(d.span.end)
+      return {
+        line: s.line,
+        column: s.column,
+        endLine: e.line,
+        endColumn: e.column,
+        severity: d.severity,
+        code: d.code,
+        message: d.message,
+        fixes: d.fixes.map((f) => ({
+          title: f.title,
+          edits: f.edits.map((x) => {
+            const es = at(x.span.start)
+            const ee = at(x.span.end)
+            return { line: es.line, column: es.column, endLine: ee.line, endColumn: ee.column, newText: x.newText }
+          }),
+        })),
+      }
+    }),
+    computed: a.computed.map((c) => ({
+      line: c.line + 1,
+      key: c.key,
+      label: c.label,
+      ...(c.value !== undefined ? { value: c.value } : {}),
+      ...(c.unit !== undefined ? { unit: c.unit } : {}),
+      title: c.title,
+      working: c.working,
+    })),
+    totals: {
+      chargeC: t.chargeC,
+      chargeAh: t.chargeC / 3600,
+      electronMol: t.electronMol,
+      effectiveElectronMol: t.effectiveElectronMol,
+      hours: t.seconds / 3600,
+      ...(t.energyJ !== undefined ? { energyWh: t.energyJ / 3600 } : {}),
+    },
+    conditions: { temperatureK: a.model.temperatureK, pressurePa: a.model.pressurePa, stated: a.model.conditionsStated },
+    constants: { faraday: FARADAY },
+  }
+}
+
+/** The annotated view: each line of the protocol followed by its computed values and diagnostics. */
+export function annotate(a: Analysis, file: string): string {
+  const out: string[] = [`== ${file}`]
+  const width = String(a.index.lineCount).length
+  const pad = ' '.repeat(width)
+  for (let line = 0; line < a.index.lineCount; line++) {
+    const text = a.index.lineText(line)
+    if (line === a.index.lineCount - 1 && text === '') break
+    out.push(`${String(line + 1).padStart(width)} | ${text}`)
+    for (const c of a.computed) if (c.line === line) out.push(`${pad} |     => ${c.label}`)
+    for (const d of a.diagnostics) {
+      if (a.index.lineOf(d.span.start) !== line) continue
+      out.push(`${pad} |     !! ${SEVERITY_WORD[d.severity]} [${d.code}] ${d.message}`)
+    }
+  }
+  const t = a.model.totals
+  if (a.model.steps.length > 0) {
+    out.push(
+      `${pad} total: ${fmt(t.chargeC / 3600, 4)} A·h (${fmt(t.chargeC, 4)} C), ${fmt(t.electronMol, 4)} mol e⁻ over ${fmt(t.seconds / 3600, 4)} h` +
+        (t.energyJ !== undefined ? `, ${fmt(t.energyJ / 3600, 4)} W·h` : ''),
+    )
+  }
+  return out.join('\n') + '\n'
+}

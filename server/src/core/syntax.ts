@@ -1,0 +1,90 @@
+// The syntax tree of a Cellrun protocol: one node per line, plain data, exact spans.
+import type { Span } from './positions'
+
+/** A word or piece of text with where it stands. */
+export interface Tok {
+  text: string
+  span: Span
+}
+
+/** An expression as written (mathjs syntax with units); evaluated later by the model. */
+export type Expr = Tok
+
+export interface ChargeItem {
+  span: Span
+  formula: Tok
+  /** Mass, amount or volume of the substance; for a solution, the mass or volume of the solution. */
+  quantity: Expr
+  /** Present for `FORMULA solution QUANTITY at CONCENTRATION`. */
+  concentration?: Expr
+}
+
+export interface Clause {
+  span: Span
+  keyword: Tok
+  expr: Expr
+}
+
+interface Base {
+  /** 0-based line. */
+  line: number
+  /** The statement's text span (after indentation, before any comment). Empty lines: zero length. */
+  span: Span
+  /** Indentation width in characters. */
+  indent: number
+  /** The statement keyword, when the line has one. */
+  keyword?: Tok
+  /** A trailing `# comment`, if any. */
+  comment?: Span
+}
+
+export type LineNode =
+  | (Base & { kind: 'blank' })
+  | (Base & { kind: 'run'; title: Tok })
+  | (Base & { kind: 'note'; text: Tok })
+  | (Base & { kind: 'conditions'; items: Expr[] })
+  | (Base & { kind: 'let'; name: Tok; expr: Expr })
+  | (Base & { kind: 'cell' })
+  | (Base & { kind: 'vessel'; material: Tok; inCell: boolean })
+  | (Base & { kind: 'compartment'; name: Tok; volume: Expr; inCell: boolean })
+  | (Base & { kind: 'separator'; type: Tok; between: [Tok, Tok]; area?: Expr; inCell: boolean })
+  | (Base & { kind: 'electrode'; role: 'anode' | 'cathode'; material: Tok; compartment: Tok; area?: Expr; inCell: boolean })
+  | (Base & { kind: 'charge'; compartment: Tok; items: ChargeItem[] })
+  | (Base & { kind: 'step'; label: Tok; clauses: Clause[] })
+  | (Base & { kind: 'expect' | 'observe'; formula: Tok; quantity: Expr; compartment?: Tok })
+  | (Base & { kind: 'handling'; type: Tok; text: Tok })
+  | (Base & { kind: 'error'; message: string; errorSpan: Span; fix?: { span: Span; newText: string; title: string } })
+
+export type NodeKind = LineNode['kind']
+
+export interface SyntaxTree {
+  text: string
+  /** Exactly one node per line, in order. */
+  lines: LineNode[]
+}
+
+export const STATEMENT_KEYWORDS = [
+  'run',
+  'note',
+  'conditions',
+  'let',
+  'cell',
+  'vessel',
+  'compartment',
+  'separator',
+  'anode',
+  'cathode',
+  'charge',
+  'step',
+  'expect',
+  'observe',
+  'handling',
+] as const
+
+export const CELL_KEYWORDS = ['vessel', 'compartment', 'separator', 'anode', 'cathode'] as const
+
+export const STEP_CLAUSES = ['current', 'voltage', 'for', 'efficiency'] as const
+
+export const SEPARATOR_KINDS = ['cation-exchange', 'anion-exchange', 'diaphragm', 'none'] as const
+
+export const HANDLING_KINDS = ['vent', 'scrubber', 'hood', 'cooling', 'ppe', 'shield', 'detector'] as const

@@ -1,0 +1,509 @@
+// Units and expressions: the one sandboxed mathjs instance of Cellrun.
+//
+// Following the mathjs security guidance: we create a private instance, add our units, keep a
+// private reference to `parse`, then disable import, createUnit, evaluate, parse, simplify,
+// derivative, resolve and reviver on the instance. Every expression is parsed once (cached by
+// text), its syntax tree is checked against a short allow-list of node types, operators and
+// functions, and its length and nesting are capped before it is compiled. Names resolve only to
+// the document's own `let` values or to units; nothing else in the mathjs namespace is reachable.
+
+import { all, create } from 'mathjs'
+import type { MathNode, Unit } from 'mathjs'
+
+const math = create(all, { number: 'number', precision: 64 })
+
+// Units chemists use that mathjs lacks. (mathjs already has Ah, Wh, degC, bar, atm, psi, torr...)
+math.createUnit('M', { definition: '1 mol/L', prefixes: 'short' }) // molar: M, mM, uM
+math.createUnit('molar', { definition: '1 mol/L' })
+math.createUnit('wtpct', { aliases: [] }) // mass fraction in percent: its own base dimension
+math.createUnit('ppmw', { definition: '0.0001 wtpct' }) // mass parts per million
+
+const privateParse = math.parse.bind(math)
+const UnitClass = math.Unit
+
+function disabled(name: string) {
+  return function () {
+    throw new Error(`Function ${name} is disabled`)
+  }
+}
+math.import(
+  {
+    import: disabled('import'),
+    createUnit: disabled('createUnit'),
+    evaluate: disabled('evaluate'),
+    parse: disabled('parse'),
+    simplify: disabled('simplify'),
+    derivative: disabled('derivative'),
+    resolve: disabled('resolve'),
+    reviver: disabled('reviver'),
+  },
+  { override: true },
+)
+
+/** A value of an expression: a plain number (dimensionless) or a mathjs Unit. */
+export type Value = number | Unit
+
+export const MAX_EXPRESSION_LENGTH = 400
+export const MAX_NESTING = 32
+
+const ALLOWED_OPERATORS = new Set(['add', 'subtract', 'multiply', 'divide', 'pow', 'unaryMinus', 'unaryPlus'])
+const ALLOWED_FUNCTIONS = new Set(['sqrt', 'abs'])
+const CONSTANTS = new Set(['pi'])
+
+export type ExprFailureReason = 'syntax' | 'refused' | 'too-long' | 'unknown-name' | 'math'
+
+export interface ExprFailure {
+  reason: ExprFailureReason
+  message: string
+  /** Offsets within the expression text as the user wrote it. */
+  start: number
+  end: number
+  /** For unknown-name: the name. */
+  name?: string
+}
+
+interface Compiled {
+  ok: true
+  code: { evaluate(scope: Map<string, unknown>): unknown }
+  /** Symbols: `let` names come from the scope; a unit name is a unit unless a `let` value shadows it. */
+  names: { name: string; start: number; end: number; isUnit: boolean }[]
+  /** Unit symbols used, which must be placed in the scope as units (so `min` is minutes, not a function). */
+  unitSymbols: string[]
+}
+
+type CompileResult = Compiled | { ok: false; failure: ExprFailure }
+
+const cache = new Map<string, CompileResult>()
+const CACHE_LIMIT = 5000
+
+/** Replace the typographic forms we accept with mathjs syntax, keeping a map back to the original offsets. */
+export function normalise(text: string): { text: string; map: number[] } {
+  const out: string[] = []
+  const map: number[] = []
+  const push = (s: string, at: number) => {
+    for (const ch of s) {
+      out.push(ch)
+      map.push(at)
+    }
+  }
+  for (let i = 0; i < text.length; i++) {
+    const c = text[i]
+    if (c === '°' && text[i + 1] === 'C') {
+      push('degC', i)
+      i++
+    } else if (c === '°' && text[i + 1] === 'F') {
+      push('degF', i)
+      i++
+    } else if (c === 'w' && text.startsWith('wt%', i) && !/[A-Za-z0-9_]/.test(text[i - 1] ?? ' ')) {
+      push('wtpct', i)
+      i += 2
+    } else if (c === '·' || c === '×' || c === '⋅') {
+      push('*', i)
+    } else if (c === '−') {
+      push('-', i)
+    } else if (c === 'µ' || c === 'μ') {
+      push('u', i)
+    } else if (c === '²') {
+      push('^2', i)
+    } else if (c === '³') {
+      push('^3', i)
+    } else {
+      push(c, i)
+    }
+  }
+  map.push(text.length)
+  return { text: out.join(''), map }
+}
+
+function isUnitName(name: string): boolean {
+  try {
+    return UnitClass.isValuelessUnit(name)
+  } catch {
+    return false
+  }
+}
+
+interface NodeInfo {
+  start: number
+  end: number
+}
+
+function compile(text: string): CompileResult {
+  if (text.trim() === '') {
+    return { ok: false, failure: { reason: 'syntax', message: 'a value is missing here', start: 0, end: 0 } }
+  }
+  if (text.length > MAX_EXPRESSION_LENGTH) {
+    return {
+      ok: false,
+      failure: {
+        reason: 'too-long',
+        message: `expression is longer than ${MAX_EXPRESSION_LENGTH} characters; split it into named values with \`let\``,
+        start: 0,
+        end: text.length,
+      },
+    }
+  }
+  // Cheap nesting cap before handing the text to the parser (its recursion depth follows the nesting).
+  let depth = 0
+  let maxDepth = 0
+  for (const ch of text) {
+    if (ch === '(' || ch === '[' || ch === '{') maxDepth = Math.max(maxDepth, ++depth)
+    else if (ch === ')' || ch === ']' || ch === '}') depth--
+  }
+  if (maxDepth > MAX_NESTING) {
+    return {
+      ok: false,
+      failure: { reason: 'too-long', message: `expression nests deeper than ${MAX_NESTING} levels`, start: 0, end: text.length },
+    }
+  }
+  const norm = normalise(text)
+  const back = (i: number) => norm.map[Math.max(0, Math.min(i, norm.map.length - 1))]
+  let root: MathNode
+  try {
+    root = privateParse(norm.text) as MathNode
+  } catch (e) {
+    const msg = e instanceof Error ? e.message : String(e)
+    const m = /\(char (\d+)\)/.exec(msg)
+    const at = m ? back(Math.max(0, Number(m[1]) - 1)) : 0
+    return {
+      ok: false,
+      failure: {
+        reason: 'syntax',
+        message: `cannot read this expression: ${msg.replace(/\s*\(char \d+\)/, '')}`,
+        start: at,
+        end: Math.max(at + 1, text.length),
+      },
+    }
+  }
+  const names: Compiled['names'] = []
+  const unitSymbols = new Set<string>()
+  let failure: ExprFailure | null = null
+  const whole: NodeInfo = { start: 0, end: text.length }
+  // Locate a symbol in the normalised text, scanning forward so repeated names map to successive places.
+  let searchFrom = 0
+  const locate = (name: string): NodeInfo => {
+    const re = new RegExp(`(?<![A-Za-z0-9_])${name.replace(/[^A-Za-z0-9_]/g, '')}(?![A-Za-z0-9_])`, 'g')
+    re.lastIndex = searchFrom
+    const m = re.exec(norm.text)
+    if (!m) return whole
+    searchFrom = m.index + name.length
+    return { start: back(m.index), end: back(m.index + name.length - 1) + 1 }
+  }
+  const visit = (node: MathNode, level: number): void => {
+    if (failure) return
+    if (level > MAX_NESTING) {
+      failure = { reason: 'too-long', message: `expression nests deeper than ${MAX_NESTING} levels`, ...whole }
+      return
+    }
+    const n = node as MathNode & { fn?: unknown; name?: string; args?: MathNode[]; content?: MathNode; value?: unknown }
+    switch (node.type) {
+      case 'ConstantNode':
+        if (typeof n.value !== 'number') failure = { reason: 'refused', message: 'only numbers are allowed as constants', ...whole }
+        return
+      case 'SymbolNode': {
+        const name = n.name as string
+        if (CONSTANTS.has(name)) return
+        if (isUnitName(name)) {
+          unitSymbols.add(name)
+          // A name may be both a unit and a `let` value; record it so the scope can win.
+          names.push({ name, ...locate(name), isUnit: true })
+          return
+        }
+        names.push({ name, ...locate(name), isUnit: false })
+        return
+      }
+      case 'ParenthesisNode':
+        visit(n.content as MathNode, level + 1)
+        return
+      case 'OperatorNode': {
+        const fn = n.fn as string
+        if (!ALLOWED_OPERATORS.has(fn)) {
+          failure = {
+            reason: 'refused',
+            message: `the operator \`${(node as unknown as { op: string }).op}\` is not allowed here`,
+            ...whole,
+          }
+          return
+        }
+        for (const a of n.args ?? []) visit(a, level + 1)
+        return
+      }
+      case 'FunctionNode': {
+        const fnNode = n.fn as MathNode & { name?: string }
+        const fname = fnNode?.type === 'SymbolNode' ? fnNode.name ?? '' : ''
+        if (!ALLOWED_FUNCTIONS.has(fname)) {
+          failure = {
+            reason: 'refused',
+            message: fname
+              ? `the function \`${fname}\` is not allowed; allowed: ${[...ALLOWED_FUNCTIONS].join(', ')}`
+              : 'this kind of function call is not allowed',
+            ...(fname ? locate(fname) : whole),
+          }
+          return
+        }
+        for (const a of n.args ?? []) visit(a, level + 1)
+        return
+      }
+      default:
+        failure = { reason: 'refused', message: `${describeNode(node.type)} is not allowed in a Cellrun expression`, ...whole }
+    }
+  }
+  visit(root, 0)
+  if (failure) return { ok: false, failure }
+  let code: Compiled['code']
+  try {
+    code = root.compile() as Compiled['code']
+  } catch (e) {
+    return { ok: false, failure: { reason: 'syntax', message: String(e instanceof Error ? e.message : e), ...whole } }
+  }
+  return { ok: true, code, names, unitSymbols: [...unitSymbols] }
+}
+
+function describeNode(type: string): string {
+  switch (type) {
+    case 'AssignmentNode':
+    case 'FunctionAssignmentNode':
+      return 'assignment (use a `let` line)'
+    case 'AccessorNode':
+    case 'IndexNode':
+      return 'property or index access'
+    case 'ArrayNode':
+    case 'RangeNode':
+      return 'a matrix or range'
+    case 'ObjectNode':
+      return 'an object'
+    case 'BlockNode':
+      return 'a block of several expressions'
+    case 'ConditionalNode':
+      return 'a conditional'
+    case 'RelationalNode':
+      return 'a comparison'
+    default:
+      return `a ${type}`
+  }
+}
+
+function compiled(text: string): CompileResult {
+  let c = cache.get(text)
+  if (!c) {
+    c = compile(text)
+    if (cache.size >= CACHE_LIMIT) cache.clear()
+    cache.set(text, c)
+  }
+  return c
+}
+
+export type EvalResult = { ok: true; value: Value } | { ok: false; failure: ExprFailure }
+
+const unitValues = new Map<string, Unit>()
+function unitSymbolValue(name: string): Unit {
+  let u = unitValues.get(name)
+  if (!u) {
+    u = math.unit(name)
+    unitValues.set(name, u)
+  }
+  return u
+}
+
+/**
+ * Evaluate an expression with the document's named values. Never throws.
+ * `scope` maps `let` names to values; names not in it must be units.
+ */
+export function evaluateExpression(text: string, scope: ReadonlyMap<string, Value>): EvalResult {
+  const c = compiled(text)
+  if (!c.ok) return c
+  const s = new Map<string, unknown>()
+  for (const u of c.unitSymbols) s.set(u, unitSymbolValue(u))
+  for (const n of c.names) {
+    const v = scope.get(n.name)
+    if (v !== undefined) s.set(n.name, v)
+    else if (!n.isUnit) {
+      return {
+        ok: false,
+        failure: { reason: 'unknown-name', message: `unknown name \`${n.name}\``, start: n.start, end: n.end, name: n.name },
+      }
+    }
+  }
+  try {
+    const v = c.code.evaluate(s)
+    if (typeof v === 'number') {
+      if (!Number.isFinite(v)) return { ok: false, failure: { reason: 'math', message: 'the value is not a finite number', start: 0, end: text.length } }
+      return { ok: true, value: v }
+    }
+    if (isUnit(v)) {
+      const num = v.value
+      if (num === null || num === undefined) return { ok: true, value: math.unit(1, v.formatUnits()) as Unit }
+      if (typeof num !== 'number' || !Number.isFinite(num)) {
+        return { ok: false, failure: { reason: 'math', message: 'the value is not a finite number', start: 0, end: text.length } }
+      }
+      return { ok: true, value: v }
+    }
+    return { ok: false, failure: { reason: 'refused', message: 'the expression does not give a number or a quantity', start: 0, end: text.length } }
+  } catch (e) {
+    const msg = e instanceof Error ? e.message : String(e)
+    return { ok: false, failure: { reason: 'math', message: friendlyMathError(msg), start: 0, end: text.length } }
+  }
+}
+
+function friendlyMathError(msg: string): string {
+  if (/Units do not match|do not match/i.test(msg)) return 'cannot add or subtract quantities of different kinds'
+  if (/Unit.*not.*allowed|exponent/i.test(msg)) return `cannot compute this: ${msg}`
+  return `cannot compute this: ${msg}`
+}
+
+export function isUnit(v: unknown): v is Unit {
+  return typeof v === 'object' && v !== null && (v as { type?: string }).type === 'Unit'
+}
+
+// ---------------------------------------------------------------------------------------------
+// Kinds of quantity
+
+export type Kind =
+  | 'dimensionless'
+  | 'mass'
+  | 'amount'
+  | 'volume'
+  | 'area'
+  | 'length'
+  | 'current'
+  | 'current-density'
+  | 'voltage'
+  | 'time'
+  | 'charge'
+  | 'temperature'
+  | 'pressure'
+  | 'molarity'
+  | 'mass-concentration'
+  | 'mass-fraction'
+  | 'energy'
+  | 'power'
+  | 'molar-mass'
+
+/** The SI (or customary) unit each kind is stored in. */
+export const KIND_UNIT: Record<Exclude<Kind, 'dimensionless'>, string> = {
+  mass: 'g',
+  amount: 'mol',
+  volume: 'L',
+  area: 'cm^2',
+  length: 'm',
+  current: 'A',
+  'current-density': 'A/m^2',
+  voltage: 'V',
+  time: 's',
+  charge: 'C',
+  temperature: 'K',
+  pressure: 'Pa',
+  molarity: 'mol/L',
+  'mass-concentration': 'g/L',
+  'mass-fraction': 'wtpct',
+  energy: 'J',
+  power: 'W',
+  'molar-mass': 'g/mol',
+}
+
+export const KIND_LABEL: Record<Kind, string> = {
+  dimensionless: 'a plain number',
+  mass: 'a mass',
+  amount: 'an amount of substance',
+  volume: 'a volume',
+  area: 'an area',
+  length: 'a length',
+  current: 'a current',
+  'current-density': 'a current density',
+  voltage: 'a voltage',
+  time: 'a duration',
+  charge: 'an electric charge',
+  temperature: 'a temperature',
+  pressure: 'a pressure',
+  molarity: 'a molar concentration',
+  'mass-concentration': 'a mass concentration',
+  'mass-fraction': 'a mass fraction (wt%)',
+  energy: 'an energy',
+  power: 'a power',
+  'molar-mass': 'a molar mass',
+}
+
+const kindRefs: [Kind, Unit][] = (Object.keys(KIND_UNIT) as Exclude<Kind, 'dimensionless'>[]).map((k) => [
+  k,
+  math.unit(KIND_UNIT[k]) as Unit,
+])
+
+/** The kind of a value, or 'other' when it matches none we know. */
+export function kindOf(v: Value): Kind | 'other' {
+  if (typeof v === 'number') return 'dimensionless'
+  for (const [k, ref] of kindRefs) if (v.equalBase(ref)) return k
+  if (v.dimensions.every((d) => d === 0)) return 'dimensionless'
+  return 'other'
+}
+
+/** The number of `unit` in a value (e.g. toNumber(v, 'A')); plain numbers pass through. */
+export function toNumber(v: Value, unit: string): number {
+  if (typeof v === 'number') return v
+  return v.toNumber(unit)
+}
+
+/** Value in the kind's stored unit. */
+export function inKindUnit(v: Value, kind: Kind): number {
+  if (kind === 'dimensionless') return typeof v === 'number' ? v : v.toNumber('')
+  return toNumber(v, KIND_UNIT[kind])
+}
+
+/** Human text of a value as written by the user's units, e.g. "1.44 A". */
+export function formatValue(v: Value): string {
+  if (typeof v === 'number') return fmt(v)
+  const n = v.toNumber(v.formatUnits())
+  return `${fmt(n)} ${prettyUnit(v.formatUnits())}`
+}
+
+/** Make a quantity from a number and unit text (internal use only; `unit` is trusted). */
+export function quantity(n: number, unit: string): Unit {
+  return math.unit(n, unit) as Unit
+}
+
+/** Make a named unit value for scope use. */
+export function unitValue(u: Unit): Value {
+  return u
+}
+
+/** Pretty unit text: "A h" -> "A·h", "cm^2" -> "cm²", "wtpct" -> "wt%". */
+export function prettyUnit(u: string): string {
+  return u
+    .replace(/wtpct/g, 'wt%')
+    .replace(/\^2\b/g, '²')
+    .replace(/\^3\b/g, '³')
+    .replace(/\bdegC\b/g, '°C')
+    .replace(/ \/ /g, '/')
+    .replace(/(\w) (?=\w)/g, '$1·')
+    .replace(/\bu(?=[A-Za-z])/g, 'µ')
+}
+
+/** Format a number with `sig` significant figures, no exponent between 1e-3 and 1e6. */
+export function fmt(n: number, sig = 3): string {
+  if (!Number.isFinite(n)) return String(n)
+  if (n === 0) return '0'
+  const a = Math.abs(n)
+  if (a >= 1e6 || a < 1e-3) {
+    const [m, e] = n.toExponential(sig - 1).split('e')
+    return `${stripZeros(m)}e${Number(e)}`
+  }
+  const digits = Math.max(0, sig - 1 - Math.floor(Math.log10(a)))
+  let s = n.toFixed(Math.min(20, digits))
+  if (s.includes('.')) s = stripZeros(s)
+  return s
+}
+
+function stripZeros(s: string): string {
+  return s.includes('.') ? s.replace(/\.?0+$/, '') : s
+}
+
+/** The disabled functions, exported so tests can prove they stay disabled. */
+export const sandbox = {
+  tryDisabled(name: 'import' | 'createUnit' | 'evaluate' | 'parse' | 'simplify' | 'derivative' | 'resolve' | 'reviver'): string {
+    try {
+      ;(math as unknown as Record<string, () => unknown>)[name]()
+      return 'not disabled'
+    } catch (e) {
+      return e instanceof Error ? e.message : String(e)
+    }
+  },
+}

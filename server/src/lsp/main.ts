@@ -1,0 +1,67 @@
+// The Cellrun language server over stdio (or IPC when the client asks for it): a thin layer that
+// keeps the open documents, runs the core analysis once per document version, and converts.
+import { createConnection, ProposedFeatures, TextDocuments, TextDocumentSyncKind } from 'vscode-languageserver/node'
+import { TextDocument } from 'vscode-languageserver-textdocument'
+import { analyze, hoverAt, outline, type Analysis } from '../core/analyze'
+import { toCodeActions, toDocumentSymbols, toInlayHints, toLspDiagnostic, toRange } from './convert'
+
+const connection = createConnection(ProposedFeatures.all)
+const documents = new TextDocuments(TextDocument)
+const cache = new Map<string, { version: number; analysis: Analysis }>()
+
+function analysisOf(doc: TextDocument): Analysis {
+  const hit = cache.get(doc.uri)
+  if (hit && hit.version === doc.version) return hit.analysis
+  const analysis = analyze(doc.getText())
+  cache.set(doc.uri, { version: doc.version, analysis })
+  return analysis
+}
+
+connection.onInitialize(() => ({
+  capabilities: {
+    textDocumentSync: TextDocumentSyncKind.Incremental,
+    hoverProvider: true,
+    inlayHintProvider: true,
+    documentSymbolProvider: true,
+    codeActionProvider: { codeActionKinds: ['quickfix'] },
+  },
+  serverInfo: { name: 'cellrun-server', version: '0.1.0' },
+}))
+
+documents.onDidChangeContent(({ document }) => {
+  const a = analysisOf(document)
+  void connection.sendDiagnostics({ uri: document.uri, version: document.version, diagnostics: a.diagnostics.map((d) => toLspDiagnostic(a, d)) })
+})
+
+documents.onDidClose(({ document }) => {
+  cache.delete(document.uri)
+  void connection.sendDiagnostics({ uri: document.uri, diagnostics: [] })
+})
+
+connection.onHover(({ textDocument, position }) => {
+  const doc = documents.get(textDocument.uri)
+  if (!doc) return null
+  const a = analysisOf(doc)
+  const h = hoverAt(a, a.index.offsetAt(position))
+  return h ? { contents: { kind: 'markdown', value: h.markdown }, range: toRange(a.index, h.span) } : null
+})
+
+connection.languages.inlayHint.on(({ textDocument, range }) => {
+  const doc = documents.get(textDocument.uri)
+  return doc ? toInlayHints(analysisOf(doc), range) : []
+})
+
+connection.onDocumentSymbol(({ textDocument }) => {
+  const doc = documents.get(textDocument.uri)
+  if (!doc) return []
+  const a = analysisOf(doc)
+  return toDocumentSymbols(a, outline(a))
+})
+
+connection.onCodeAction(({ textDocument, range }) => {
+  const doc = documents.get(textDocument.uri)
+  return doc ? toCodeActions(analysisOf(doc), textDocument.uri, range) : []
+})
+
+documents.listen(connection)
+connection.listen()

@@ -1,0 +1,41 @@
+// The rule registry: every diagnostic Cellrun reports comes from one of these modules.
+import { badExpression } from './bad-expression'
+import { badFormula } from './bad-formula'
+import { beyondFaraday } from './beyond-faraday'
+import { duplicateName } from './duplicate-name'
+import { efficiencyOver100 } from './efficiency-over-100'
+import { missingElectrode } from './missing-electrode'
+import { outOfRange } from './out-of-range'
+import { outsideCell } from './outside-cell'
+import { overfilled } from './overfilled'
+import { productReaction } from './product-reaction'
+import type { Rule } from './rule'
+import { stepIncomplete } from './step-incomplete'
+import { syntax } from './syntax'
+import { unknownElement } from './unknown-element'
+import { unknownKind } from './unknown-kind'
+import { unknownName } from './unknown-name'
+import { wrongUnit } from './wrong-unit'
+import { zeroForO } from './zero-for-o'
+
+export const RULES: readonly Rule[] = [
+  syntax,
+  badExpression,
+  unknownName,
+  wrongUnit,
+  outOfRange,
+  unknownElement,
+  zeroForO,
+  badFormula,
+  duplicateName,
+  unknownKind,
+  outsideCell,
+  missingElectrode,
+  stepIncomplete,
+  overfilled,
+  productReaction,
+  beyondFaraday,
+  efficiencyOver100,
+]
+
+export type { Rule, RuleContext } from './rule'

@@ -1,0 +1,48 @@
+// unknown-name: an expression uses a name no `let` defines, or a line names a compartment the
+// cell does not declare. The fix offers the closest declared name.
+import { fix, type Diagnostic } from '../core/diagnostics'
+import { closest } from '../core/text'
+import type { Rule } from './rule'
+
+export const unknownName: Rule = {
+  code: 'unknown-name',
+  severity: 'error',
+  summary: 'A name that is not defined: a value without a `let`, or a compartment the cell does not declare.',
+  check({ model }) {
+    const out: Diagnostic[] = []
+    const valueNames = [...model.values.keys()]
+    const laterLets = new Map(model.declarations.filter((d) => d.of === 'value').map((d) => [d.tok.text, d.line]))
+    for (const q of model.quantities) {
+      const f = q.failure
+      if (!f || f.reason !== 'unknown-name' || !f.name) continue
+      const span = { start: q.expr.span.start + f.start, end: q.expr.span.start + f.end }
+      const later = laterLets.get(f.name)
+      const guess = closest(f.name, valueNames)
+      out.push({
+        code: 'unknown-name',
+        severity: 'error',
+        message:
+          later !== undefined && later >= q.line
+            ? `\`${f.name}\` is defined later, on line ${later + 1}; a value can use only the values defined above it`
+            : `unknown name \`${f.name}\`${guess ? `; did you mean \`${guess}\`?` : ' (define it with `let`, or check the unit)'}`,
+        span,
+        fixes: guess ? [fix(`Change to \`${guess}\``, span, guess)] : [],
+      })
+    }
+    const compartments = [...model.compartments.keys()]
+    for (const r of model.refs) {
+      if (r.resolved) continue
+      const guess = closest(r.tok.text, compartments)
+      out.push({
+        code: 'unknown-name',
+        severity: 'error',
+        message: `no compartment \`${r.tok.text}\` in the cell${
+          guess ? `; did you mean \`${guess}\`?` : compartments.length ? ` (declared: ${compartments.join(', ')})` : ' (declare it with `compartment NAME VOLUME` under `cell`)'
+        }`,
+        span: r.tok.span,
+        fixes: guess ? [fix(`Change to \`${guess}\``, r.tok.span, guess)] : [],
+      })
+    }
+    return out
+  },
+}
