@@ -1,9 +1,9 @@
 // Standard atomic weights, relative to 12C = 12 (dimensionless; numerically g/mol).
 //
 // Source: IUPAC Commission on Isotopic Abundances and Atomic Weights (CIAAW), "Standard atomic
-// weights of the elements 2021" (T. Prohaska et al., Pure Appl. Chem. 94 (2022) 573-600), plus
-// the three CIAAW revisions announced in 2024: Zr 91.224(2) -> 91.222(3),
-// Gd 157.25(3) -> 157.249(2), Lu 174.9668(1) -> 174.96669(5).
+// weights of the elements 2021" (T. Prohaska et al., Pure Appl. Chem. 94 (2022) 573-600). This
+// table keeps the 2021 values on purpose; CIAAW revised Zr, Gd and Lu in 2024 (Zr 91.224 ->
+// 91.222, Gd 157.25 -> 157.249, Lu 174.9668 -> 174.96669): noted beside those rows.
 //
 // Which value is used:
 // - Elements whose standard atomic weight is a single value with an uncertainty use that value
@@ -19,7 +19,7 @@
 // Provenance: the values below were transcribed from memory of the CIAAW table, not copied from
 // a file of it. Cross-checked while writing against the changes listed in the 2013, 2017 and 2021
 // CIAAW reports (Cd, Mo, Se, Th; Al, Ar, Co, Au, Ho, Ir, Mn, Nb, Pr, Pa, Rh, Tb, Tm, Y; Hf, Ir, Pb,
-// Yb) and the 2024 announcement (Zr, Gd, Lu). Least certain are the last digits of the values
+// Yb). Least certain are the last digits of the values
 // changed by the 2021 report on the basis of the 2020 Atomic Mass Evaluation (F, Sc, Y, Ho, Tb, Tm),
 // which differ from the previous values by at most a few parts in 10^7 and do not affect any
 // molar mass at the precision this project reports.
@@ -67,7 +67,7 @@ const ELEMENTS: readonly ElementRow[] = [
   ['Rb', 'rubidium', 85.4678],
   ['Sr', 'strontium', 87.62],
   ['Y', 'yttrium', 88.905838],
-  ['Zr', 'zirconium', 91.222], // CIAAW 2024 revision (2021 table: 91.224)
+  ['Zr', 'zirconium', 91.224], // 2021 table; CIAAW 2024 revised it to 91.222
   ['Nb', 'niobium', 92.90637],
   ['Mo', 'molybdenum', 95.95],
   ['Tc', 'technetium', null],
@@ -91,14 +91,14 @@ const ELEMENTS: readonly ElementRow[] = [
   ['Pm', 'promethium', null],
   ['Sm', 'samarium', 150.36],
   ['Eu', 'europium', 151.964],
-  ['Gd', 'gadolinium', 157.249], // CIAAW 2024 revision (2021 table: 157.25)
+  ['Gd', 'gadolinium', 157.25], // 2021 table; CIAAW 2024 revised it to 157.249
   ['Tb', 'terbium', 158.925354],
   ['Dy', 'dysprosium', 162.5],
   ['Ho', 'holmium', 164.930329],
   ['Er', 'erbium', 167.259],
   ['Tm', 'thulium', 168.934219],
   ['Yb', 'ytterbium', 173.045], // 2021 table (before: 173.054)
-  ['Lu', 'lutetium', 174.96669], // CIAAW 2024 revision (2021 table: 174.9668)
+  ['Lu', 'lutetium', 174.9668], // 2021 table; CIAAW 2024 revised it to 174.96669
   ['Hf', 'hafnium', 178.486], // 2021 table (before: 178.49)
   ['Ta', 'tantalum', 180.94788],
   ['W', 'tungsten', 183.84],

@@ -142,6 +142,8 @@ export interface YieldFact {
   /** Feed limit in mol, when one applies. */
   limitMol?: number
   limitWhy?: string
+  /** For a gas stated by volume: litres per mole at the run's conditions (ideal gas). */
+  litresPerMol?: number
 }
 
 export interface Model {
@@ -678,6 +680,7 @@ class Evaluator {
     y.reaction = r
     const M = f.molarMass
     const Vm = (GAS_CONSTANT * this.m.temperatureK) / this.m.pressurePa // m³/mol
+    if (gas && q.kind === 'volume') y.litresPerMol = Vm * 1000
     if (q.number !== undefined) {
       y.mol = q.kind === 'mass' ? q.number / M : q.kind === 'amount' ? q.number : (q.number / 1000) / Vm
     }

@@ -17,11 +17,13 @@ export const beyondFaraday: Rule = {
       if (y.mol <= max * (1 + 1e-9)) return []
       const M = y.formula.formula.molarMass
       const pf = prettyFormula(y.formula.tok.text)
-      const why = feedLimited
-        ? `the feed holds enough for only ${fmt(max * M)} g (${y.limitWhy})`
-        : `the charge passed makes at most ${fmt(max * M)} g (${fmt(max)} mol at ${y.reaction.electrons} e⁻ each)`
       const q = y.quantity
-      const replacement = q.kind === 'amount' ? `${fmt(max)} mol` : q.kind === 'mass' ? `${fmt(max * M)} g` : undefined
+      // Speak in the unit the line uses: mass, amount, or gas volume at the run's conditions.
+      const shown = q.kind === 'amount' ? `${fmt(max)} mol` : y.litresPerMol ? `${fmt(max * y.litresPerMol)} L` : `${fmt(max * M)} g`
+      const why = feedLimited
+        ? `the feed holds enough for only ${shown} (${y.limitWhy})`
+        : `the charge passed makes at most ${shown} (${fmt(max)} mol at ${y.reaction.electrons} e⁻ each)`
+      const replacement = shown
       return [
         {
           code: 'beyond-faraday',
