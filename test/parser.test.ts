@@ -1,0 +1,177 @@
+// The line parser: every statement's parts with exact spans, and broken input becoming error
+// nodes without stopping the parse.
+import { describe, expect, it } from 'vitest'
+import { parse } from '../server/src/core/parser'
+import type { LineNode } from '../server/src/core/syntax'
+import { covered, marked } from './support/markers'
+
+function only<K extends LineNode['kind']>(src: string, kind: K): Extract<LineNode, { kind: K }> {
+  const tree = parse(src)
+  const n = tree.lines.find((l) => l.kind !== 'blank')!
+  expect(n.kind, n.kind === 'error' ? n.message : '').toBe(kind)
+  return n as Extract<LineNode, { kind: K }>
+}
+
+describe('statements', () => {
+  it('reads a run title, a note and conditions', () => {
+    const src = 'run "KOH batch 7"  # first\nnote Feed is technical grade. # not part of the note\nconditions 22 degC, 101.325 kPa'
+    const t = parse(src)
+    expect(t.lines.map((l) => l.kind)).toEqual(['run', 'note', 'conditions'])
+    const run = t.lines[0] as Extract<LineNode, { kind: 'run' }>
+    expect(run.title.text).toBe('KOH batch 7')
+    expect(covered(src, run.comment!)).toBe('# first')
+    const note = t.lines[1] as Extract<LineNode, { kind: 'note' }>
+    expect(note.text.text).toBe('Feed is technical grade.')
+    const cond = t.lines[2] as Extract<LineNode, { kind: 'conditions' }>
+    expect(cond.items.map((i) => covered(src, i.span))).toEqual(['22 degC', '101.325 kPa'])
+  })
+
+  it('keeps a # inside a quoted title', () => {
+    const n = only('run "Cell #4 test" # comment', 'run')
+    expect(n.title.text).toBe('Cell #4 test')
+  })
+
+  it('reads a named value with its expression span', () => {
+    const m = marked('let ⟦area⟧ = ⟦36 cm^2⟧')
+    const n = only(m.text, 'let')
+    expect(n.name.span).toEqual(m.ranges[0])
+    expect(n.expr.span).toEqual(m.ranges[1])
+  })
+
+  it('reads the cell block with indented parts', () => {
+    const src = [
+      'cell',
+      '  vessel polypropylene',
+      '  compartment feed 700 mL',
+      '  compartment product 180 mL',
+      '  separator cation-exchange between feed and product, area 36 cm^2',
+      '  anode mmo-titanium in feed, area area',
+      '  cathode nickel in product',
+      'charge feed: K2CO3 260 g',
+    ].join('\n')
+    const t = parse(src)
+    expect(t.lines.map((l) => l.kind)).toEqual(['cell', 'vessel', 'compartment', 'compartment', 'separator', 'electrode', 'electrode', 'charge'])
+    const sep = t.lines[4] as Extract<LineNode, { kind: 'separator' }>
+    expect(sep.type.text).toBe('cation-exchange')
+    expect(sep.between.map((b) => b.text)).toEqual(['feed', 'product'])
+    expect(sep.area?.text).toBe('36 cm^2')
+    expect(sep.inCell).toBe(true)
+    const anode = t.lines[5] as Extract<LineNode, { kind: 'electrode' }>
+    expect([anode.role, anode.material.text, anode.compartment.text, anode.area?.text]).toEqual(['anode', 'mmo-titanium', 'feed', 'area'])
+    const cathode = t.lines[6] as Extract<LineNode, { kind: 'electrode' }>
+    expect(cathode.area).toBeUndefined()
+  })
+
+  it('marks cell parts that are not under a cell line', () => {
+    const n = only('compartment feed 1 L', 'compartment')
+    expect(n.inCell).toBe(false)
+  })
+
+  it('reads charge items: solids, water and solutions', () => {
+    const m = marked('charge feed: ⟦K2CO3⟧ ⟦260 g⟧, ⟦water⟧ ⟦600 mL⟧, ⟦NaOH⟧ solution ⟦400 g⟧ at ⟦25 wt%⟧')
+    const n = only(m.text, 'charge')
+    expect(n.compartment.text).toBe('feed')
+    expect(n.items).toHaveLength(3)
+    const [a, b, c] = n.items
+    expect([a.formula.span, a.quantity.span, b.formula.span, b.quantity.span, c.formula.span, c.quantity.span, c.concentration?.span]).toEqual(m.ranges)
+  })
+
+  it('splits charge items only at top-level commas', () => {
+    const n = only('charge feed: NaCl (2 + 1) * 100 g, water 1 L', 'charge')
+    expect(n.items.map((i) => i.quantity.text)).toEqual(['(2 + 1) * 100 g', '1 L'])
+  })
+
+  it('reads step clauses, with `for` after a clause or after a comma', () => {
+    const m = marked('step 1: ⟦current⟧ ⟦40 mA/cm^2 * area⟧ ⟦for⟧ ⟦5 h⟧, ⟦efficiency⟧ ⟦85 %⟧')
+    const n = only(m.text, 'step')
+    expect(n.label.text).toBe('1')
+    expect(n.clauses.flatMap((c) => [c.keyword.span, c.expr.span])).toEqual(m.ranges)
+    const n2 = only('step warm: voltage 3.2 V, current 1.5 A, for 2 h', 'step')
+    expect(n2.clauses.map((c) => c.keyword.text)).toEqual(['voltage', 'current', 'for'])
+  })
+
+  it('does not split at a `for` inside a word', () => {
+    const n = only('step 1: current formed for 2 h', 'step')
+    expect(n.clauses.map((c) => [c.keyword.text, c.expr.text])).toEqual([
+      ['current', 'formed'],
+      ['for', '2 h'],
+    ])
+  })
+
+  it('reads expect and observe lines with and without a compartment', () => {
+    const m = marked('expect ⟦KOH⟧ ⟦25 g⟧ in ⟦product⟧')
+    const n = only(m.text, 'expect')
+    expect([n.formula.span, n.quantity.span, n.compartment?.span]).toEqual(m.ranges)
+    const o = only('observe H2 3.1 L', 'observe')
+    expect(o.quantity.text).toBe('3.1 L')
+    expect(o.compartment).toBeUndefined()
+  })
+
+  it('reads handling lines', () => {
+    const n = only('handling vent: H2 piped outdoors # see SOP 4', 'handling')
+    expect(n.type.text).toBe('vent')
+    expect(n.text.text).toBe('H2 piped outdoors')
+  })
+})
+
+describe('broken input', () => {
+  it('turns a bad line into an error node and goes on with the next line', () => {
+    const src = 'run "A"\nstepp 1: current 1 A for 1 h\nstep 2: current 1 A for 1 h\n'
+    const t = parse(src)
+    expect(t.lines.map((l) => l.kind)).toEqual(['run', 'error', 'step', 'blank'])
+    const e = t.lines[1] as Extract<LineNode, { kind: 'error' }>
+    expect(e.message).toContain('stepp')
+    expect(covered(src, e.errorSpan)).toBe('stepp')
+    expect(e.fix?.newText).toBe('step')
+  })
+
+  it.each([
+    ['run "unclosed', 'closing `"`'],
+    ['let = 5', 'expected a name'],
+    ['let x 5', '`=`'],
+    ['compartment feed', 'expected a volume'],
+    ['separator cation-exchange feed and product', '`between`'],
+    ['anode platinum feed', '`in`'],
+    ['anode platinum in feed, 36 cm^2', '`area`'],
+    ['charge feed K2CO3 1 g', '`:`'],
+    ['charge feed: K2CO3', 'a substance and its amount'],
+    ['charge feed: NaCl solution 1 L', 'concentration'],
+    ['charge feed: NaCl 1 g,, water 1 L', 'empty item'],
+    ['step 1 current 1 A', '`:`'],
+    ['step 1: amps 2 A for 1 h', 'unknown step clause'],
+    ['step 1: current for 1 h', '`current` needs a value'],
+    ['step 1:', 'what the step does'],
+    ['cell feed', 'stands alone'],
+    ['handling vent H2 outside', '`:`'],
+    ['42 g', 'must start with a keyword'],
+  ])('%s → error mentioning %s', (src, words) => {
+    const t = parse(src)
+    const e = t.lines[0]
+    expect(e.kind).toBe('error')
+    if (e.kind === 'error') {
+      expect(e.message).toContain(words)
+      expect(e.errorSpan.start).toBeGreaterThanOrEqual(0)
+      expect(e.errorSpan.end).toBeLessThanOrEqual(src.length)
+      expect(e.errorSpan.start).toBeLessThanOrEqual(e.errorSpan.end)
+    }
+  })
+
+  it('gives one node per line for every line-break style', () => {
+    const t = parse('run "a"\r\nnote b\rnote c\n\nlet x = 1')
+    expect(t.lines.map((l) => l.kind)).toEqual(['run', 'note', 'note', 'blank', 'let'])
+    expect(t.lines.map((l) => l.line)).toEqual([0, 1, 2, 3, 4])
+  })
+
+  it('treats comment-only and blank lines as blank nodes and keeps their comment', () => {
+    const src = '   # just a comment\n\t\n'
+    const t = parse(src)
+    expect(t.lines.map((l) => l.kind)).toEqual(['blank', 'blank', 'blank'])
+    expect(covered(src, t.lines[0].comment!)).toBe('# just a comment')
+  })
+
+  it('suggests the closest keyword for a misspelt clause', () => {
+    const t = parse('step 1: curent 2 A for 1 h')
+    const e = t.lines[0]
+    expect(e.kind === 'error' && e.fix?.newText).toBe('current')
+  })
+})
