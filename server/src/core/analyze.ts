@@ -61,7 +61,7 @@ export function hoverAt(a: Analysis, offset: number): Hover | undefined {
         `\n\n${counts}  \n*(IUPAC 2021 standard atomic weights)*`,
     )
   }
-  for (const c of here.filter((c) => !f || c.key !== 'charge.item' || (offset >= c.span.start && offset <= c.span.end))) {
+  for (const c of here) {
     parts.push(`**${c.title}**\n\n${c.working.map((w) => `    ${w}`).join('\n')}`)
   }
   if (parts.length === 0) return undefined
