@@ -38,6 +38,13 @@ interface Base {
   comment?: Span
 }
 
+/** A planned (`expect`) or measured (`observe`) amount of a product. */
+interface YieldFields {
+  formula: Tok
+  quantity: Expr
+  compartment?: Tok
+}
+
 export type LineNode =
   | (Base & { kind: 'blank' })
   | (Base & { kind: 'run'; title: Tok })
@@ -51,7 +58,8 @@ export type LineNode =
   | (Base & { kind: 'electrode'; role: 'anode' | 'cathode'; material: Tok; compartment: Tok; area?: Expr; inCell: boolean })
   | (Base & { kind: 'charge'; compartment: Tok; items: ChargeItem[] })
   | (Base & { kind: 'step'; label: Tok; clauses: Clause[] })
-  | (Base & { kind: 'expect' | 'observe'; formula: Tok; quantity: Expr; compartment?: Tok })
+  | (Base & YieldFields & { kind: 'expect' })
+  | (Base & YieldFields & { kind: 'observe' })
   | (Base & { kind: 'handling'; type: Tok; text: Tok })
   | (Base & { kind: 'error'; message: string; errorSpan: Span; fix?: { span: Span; newText: string; title: string } })
 
