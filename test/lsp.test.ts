@@ -14,6 +14,7 @@ import {
   CodeActionRequest,
   DiagnosticSeverity,
   DidChangeTextDocumentNotification,
+  DidCloseTextDocumentNotification,
   DidOpenTextDocumentNotification,
   DocumentSymbolRequest,
   ExitNotification,
@@ -104,8 +105,9 @@ const published: PublishDiagnosticsParams[] = []
 const waiters: { match: (p: PublishDiagnosticsParams) => boolean; resolve: (p: PublishDiagnosticsParams) => void }[] = []
 
 /** The first publishDiagnostics for `uri` (and `version`, when given), already received or yet to come. */
-function diagnosticsFor(uri: string, version?: number): Promise<PublishDiagnosticsParams> {
-  const match = (p: PublishDiagnosticsParams) => p.uri === uri && (version === undefined || p.version === version)
+function diagnosticsFor(uri: string, version?: number | ((p: PublishDiagnosticsParams) => boolean)): Promise<PublishDiagnosticsParams> {
+  const match = (p: PublishDiagnosticsParams) =>
+    p.uri === uri && (version === undefined || (typeof version === 'function' ? version(p) : p.version === version))
   const seen = published.find(match)
   if (seen) return Promise.resolve(seen)
   return new Promise((resolve, reject) => {
@@ -115,7 +117,7 @@ function diagnosticsFor(uri: string, version?: number): Promise<PublishDiagnosti
       const i = waiters.indexOf(w)
       if (i >= 0) {
         waiters.splice(i, 1)
-        reject(new Error(`no publishDiagnostics for ${uri} v${version ?? '*'} within ${TIMEOUT} ms; server stderr:\n${stderr}`))
+        reject(new Error(`no publishDiagnostics for ${uri} (${String(version ?? 'any version')}) within ${TIMEOUT} ms; server stderr:\n${stderr}`))
       }
     }, TIMEOUT - 1000)
   })
@@ -459,6 +461,13 @@ describe('language server over stdio', () => {
       })) as InlayHint[]
       const itemEnd = shownCharge.indexOf('10 g') + 4
       expect(hints.some((x) => x.position.line === 6 && x.position.character === itemEnd)).toBe(true)
+
+      // Closing the document clears its diagnostics.
+      expect(diagnostics.length).toBeGreaterThan(0)
+      const cleared = diagnosticsFor(uri, (p) => p.version === undefined && p.diagnostics.length === 0)
+      await conn.sendNotification(DidCloseTextDocumentNotification.type, { textDocument: { uri } })
+      await cleared
+      expect(await conn.sendRequest(HoverRequest.type, { textDocument: { uri }, position: { line: 6, character: kCol + 1 } })).toBeNull()
     },
     TIMEOUT,
   )

@@ -72,7 +72,7 @@ export function hoverAt(a: Analysis, offset: number): Hover | undefined {
 export interface OutlineItem {
   name: string
   detail: string
-  kind: 'run' | 'cell' | 'compartment' | 'separator' | 'electrode' | 'charge' | 'step' | 'expect' | 'observe' | 'value' | 'handling' | 'conditions'
+  kind: 'run' | 'cell' | 'compartment' | 'separator' | 'electrode' | 'vessel' | 'charge' | 'step' | 'expect' | 'observe' | 'value' | 'handling' | 'conditions'
   span: Span
   selection: Span
   children: OutlineItem[]
@@ -116,7 +116,7 @@ export function outline(a: Analysis): OutlineItem[] {
               ? item(n, 'separator', n.type.text, `${n.between[0].text} | ${n.between[1].text}`, n.type.span)
               : n.kind === 'electrode'
                 ? item(n, 'electrode', n.role, `${n.material.text} in ${n.compartment.text}`, n.keyword?.span ?? n.span)
-                : item(n, 'separator', 'vessel', n.material.text)
+                : item(n, 'vessel', 'vessel', n.material.text, n.material.span)
         if (cell && n.inCell) {
           cell.children.push(child)
           cell.span = { start: cell.span.start, end: n.span.end }

@@ -164,14 +164,16 @@ function compile(text: string): CompileResult {
   } catch (e) {
     const msg = e instanceof Error ? e.message : String(e)
     const m = /\(char (\d+)\)/.exec(msg)
-    const at = m ? back(Math.max(0, Number(m[1]) - 1)) : 0
+    // mathjs counts from 1 and reports an error at the end of the input as length + 1:
+    // keep the position on the last character so the span stays inside the expression.
+    const at = m ? Math.min(back(Math.max(0, Number(m[1]) - 1)), Math.max(0, text.length - 1)) : 0
     return {
       ok: false,
       failure: {
         reason: 'syntax',
         message: `cannot read this expression: ${msg.replace(/\s*\(char \d+\)/, '')}`,
         start: at,
-        end: Math.max(at + 1, text.length),
+        end: text.length,
       },
     }
   }

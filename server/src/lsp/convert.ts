@@ -72,6 +72,7 @@ const SYMBOL_KIND: Record<OutlineItem['kind'], SymbolKind> = {
   compartment: SymbolKind.Field,
   separator: SymbolKind.Interface,
   electrode: SymbolKind.Property,
+  vessel: SymbolKind.Property,
   charge: SymbolKind.Array,
   step: SymbolKind.Event,
   expect: SymbolKind.Key,

@@ -1,0 +1,396 @@
+// Units and expressions (server/src/core/units.ts): the sandboxed mathjs instance.
+//
+// Sources of the expected numbers (BINDING rule: nothing below is pasted from a run of the code):
+//   - SI Brochure 9th ed. (BIPM 2019): the hour is 3600 s and the minute 60 s (Table 8, non-SI units
+//     accepted for use with the SI); litre L = 1 dm^3 = 1e-3 m^3; the degree Celsius is defined by
+//     t/°C = T/K - 273.15 (section 2.3.1); prefixes m = 1e-3, µ = 1e-6, k = 1e3, d = 1e-1.
+//   - The standard atmosphere 1 atm = 101 325 Pa and 1 bar = 1e5 Pa (definitions, SI Brochure Table 8
+//     and ISO 80000-4).
+//   - Molar concentration 1 M = 1 mol/L (IUPAC Green Book, 3rd ed., section 2.10, "molar" unit M).
+//   - Percent: 1 % = 0.01 (ISO 80000-1).
+// Every other expected value is hand arithmetic from those definitions, written out beside it.
+import { describe, expect, it } from 'vitest'
+import {
+  evaluateExpression,
+  fmt,
+  inKindUnit,
+  isUnit,
+  kindOf,
+  MAX_EXPRESSION_LENGTH,
+  MAX_NESTING,
+  normalise,
+  sandbox,
+  toNumber,
+  type ExprFailure,
+  type Kind,
+  type Value,
+} from '../server/src/core/units'
+
+const EMPTY: ReadonlyMap<string, Value> = new Map()
+
+/** Evaluate and insist it worked. */
+function value(text: string, scope: ReadonlyMap<string, Value> = EMPTY): Value {
+  const r = evaluateExpression(text, scope)
+  if (!r.ok) throw new Error(`expected \`${text}\` to evaluate, got ${r.failure.reason}: ${r.failure.message}`)
+  return r.value
+}
+
+/** Evaluate, check the kind, and return the number in the kind's stored unit. */
+function inKind(text: string, kind: Kind): number {
+  const v = value(text)
+  expect(kindOf(v), `kind of \`${text}\``).toBe(kind)
+  return inKindUnit(v, kind)
+}
+
+/** Evaluate and insist it failed; return the failure. */
+function failure(text: string, scope: ReadonlyMap<string, Value> = EMPTY): ExprFailure {
+  const r = evaluateExpression(text, scope)
+  if (r.ok) throw new Error(`expected \`${text}\` to fail, got a value`)
+  return r.failure
+}
+
+/** |a - b| / |b| below `tol`. */
+function near(actual: number, expected: number, tol = 1e-12): void {
+  expect(Math.abs(actual - expected) / Math.abs(expected), `${actual} vs ${expected}`).toBeLessThan(tol)
+}
+
+describe('units chemists use', () => {
+  it('a current density times an area is a current: 40 mA/cm^2 × 36 cm^2 = 1.44 A', () => {
+    // by hand: 40e-3 A/cm^2 × 36 cm^2 = 1.44 A
+    near(inKind('40 mA/cm^2 * 36 cm^2', 'current'), 1.44)
+    near(inKind('40 mA/cm^2 × 36 cm^2', 'current'), 1.44)
+  })
+
+  it('`90 min` is 90 minutes, not the min function', () => {
+    // SI Brochure: 1 min = 60 s, so 90 min = 5400 s
+    near(inKind('90 min', 'time'), 5400)
+    near(inKind('1.5 h', 'time'), 5400)
+    // the bare unit name is one minute
+    near(inKind('min', 'time'), 60)
+  })
+
+  it('`2 h + 30 min` adds durations', () => {
+    // 2 × 3600 s + 30 × 60 s = 7200 s + 1800 s = 9000 s
+    near(inKind('2 h + 30 min', 'time'), 9000)
+  })
+
+  it('Ah and mAh are charges', () => {
+    // 1 A·h = 1 A × 3600 s = 3600 C; 250 mA·h = 0.25 × 3600 C = 900 C
+    near(inKind('1 Ah', 'charge'), 3600)
+    near(inKind('250 mAh', 'charge'), 900)
+    near(inKind('2 A * 3 h', 'charge'), 2 * 3 * 3600)
+  })
+
+  it('M and mM are mol/L', () => {
+    // IUPAC Green Book: 1 M = 1 mol/L; m = 1e-3; µ = 1e-6
+    near(inKind('0.5 M', 'molarity'), 0.5)
+    near(inKind('2 mM', 'molarity'), 0.002)
+    near(inKind('5 µM', 'molarity'), 5e-6)
+    near(inKind('1 mol/L', 'molarity'), 1)
+    near(inKind('250 mmol / 500 mL', 'molarity'), 0.5) // 0.25 mol ÷ 0.5 L
+  })
+
+  it('g/L is a mass concentration', () => {
+    near(inKind('300 g/L', 'mass-concentration'), 300)
+    near(inKind('30 g / 100 mL', 'mass-concentration'), 300) // 30 g ÷ 0.1 L
+  })
+
+  it('`25 wt%` is a mass fraction, kept in percent', () => {
+    expect(inKind('25 wt%', 'mass-fraction')).toBe(25)
+    // and it is not a plain 0.25: a mass fraction is its own kind
+    expect(kindOf(value('25 wt%'))).not.toBe('dimensionless')
+  })
+
+  it('°C and degC are temperatures in kelvin: 22 °C = 295.15 K', () => {
+    // SI Brochure 2.3.1: T/K = t/°C + 273.15, so 22 °C = 295.15 K, 0 °C = 273.15 K, -40 °C = 233.15 K
+    near(inKind('22 °C', 'temperature'), 295.15)
+    near(inKind('22 degC', 'temperature'), 295.15)
+    near(inKind('0 degC', 'temperature'), 273.15)
+    near(inKind('-40 degC', 'temperature'), 233.15)
+    near(inKind('300 K', 'temperature'), 300)
+  })
+
+  it('`85 %` is 0.85', () => {
+    // ISO 80000-1: 1 % = 0.01
+    const v = value('85 %')
+    expect(kindOf(v)).toBe('dimensionless')
+    near(inKindUnit(v, 'dimensionless'), 0.85)
+    near(inKind('100 %', 'dimensionless'), 1)
+  })
+
+  it('`·`, `×` and `⋅` multiply', () => {
+    for (const op of ['·', '×', '⋅', '*']) near(inKind(`2 ${op} 3 A`, 'current'), 6)
+  })
+
+  it('µ (micro sign) and μ (Greek mu) are the micro prefix', () => {
+    // 5 µA = 5e-6 A
+    near(inKind('5 µA', 'current'), 5e-6)
+    near(inKind('5 μA', 'current'), 5e-6)
+  })
+
+  it('superscript ² and ³ and the minus sign − are read', () => {
+    near(inKind('2 cm²', 'area'), 2)
+    near(inKind('3 dm³', 'volume'), 3) // 1 dm^3 = 1 L
+    near(inKind('−2 A', 'current'), -2)
+  })
+
+  it('other units: pressure, volume, area, energy, power', () => {
+    near(inKind('1 atm', 'pressure'), 101325) // definition of the standard atmosphere
+    near(inKind('1 bar', 'pressure'), 1e5) // definition of the bar
+    near(inKind('101.325 kPa', 'pressure'), 101325)
+    near(inKind('250 mL', 'volume'), 0.25)
+    near(inKind('1 dm^2', 'area'), 100) // (10 cm)^2
+    near(inKind('1 m^2', 'area'), 1e4) // (100 cm)^2
+    near(inKind('2 cm', 'length'), 0.02)
+    near(inKind('1 Wh', 'energy'), 3600) // 1 W × 3600 s
+    // a constant-voltage step: 3.6 V × 1.2 A × 2 h = 8.64 W·h = 8.64 × 3600 J = 31104 J
+    near(inKind('3.6 V * 1.2 A * 2 h', 'energy'), 31104)
+    near(inKind('3 V * 2 A', 'power'), 6)
+    near(inKind('58.44 g/mol', 'molar-mass'), 58.44)
+  })
+
+  it('sqrt and abs are allowed', () => {
+    near(inKind('sqrt(4 cm^2)', 'length'), 0.02) // 2 cm
+    near(inKind('abs(-2 A)', 'current'), 2)
+    near(inKind('2 * pi', 'dimensionless'), 2 * Math.PI)
+  })
+
+  it('numbers pass through toNumber and isUnit tells values apart', () => {
+    expect(toNumber(3, 'A')).toBe(3)
+    expect(isUnit(3)).toBe(false)
+    expect(isUnit(value('3 A'))).toBe(true)
+    near(toNumber(value('1500 mA'), 'A'), 1.5)
+  })
+})
+
+describe('kinds', () => {
+  const cases: [string, Kind | 'other'][] = [
+    ['2 A', 'current'],
+    ['500 mA', 'current'],
+    ['2 A/dm^2', 'current-density'],
+    ['40 mA/cm^2', 'current-density'],
+    ['3 kA/m^2', 'current-density'],
+    ['3.6 V', 'voltage'],
+    ['100 C', 'charge'],
+    ['1 Ah', 'charge'],
+    ['5 h', 'time'],
+    ['36 cm^2', 'area'],
+    ['1 L', 'volume'],
+    ['1 g', 'mass'],
+    ['1 mol', 'amount'],
+    ['1 M', 'molarity'],
+    ['1 g/L', 'mass-concentration'],
+    ['1 wt%', 'mass-fraction'],
+    ['1 kPa', 'pressure'],
+    ['25 degC', 'temperature'],
+    ['1 J', 'energy'],
+    ['1 W', 'power'],
+    ['1 g/mol', 'molar-mass'],
+    ['3', 'dimensionless'],
+    ['50 %', 'dimensionless'],
+    ['1 m/s', 'other'],
+    ['1 A*V/m', 'other'],
+  ]
+  it.each(cases)('%s is %s', (text, kind) => {
+    expect(kindOf(value(text))).toBe(kind)
+  })
+
+  it('a current, a current density and a voltage are three different kinds', () => {
+    const kinds = new Set(['1 A', '1 A/m^2', '1 V'].map((t) => kindOf(value(t))))
+    expect(kinds.size).toBe(3)
+  })
+
+  it('inKindUnit converts into the stored unit of the kind', () => {
+    // 40 mA/cm^2 = 40e-3 A / 1e-4 m^2 = 400 A/m^2
+    near(inKind('40 mA/cm^2', 'current-density'), 400)
+    // 2 A/dm^2 = 2 A / 1e-2 m^2 = 200 A/m^2
+    near(inKind('2 A/dm^2', 'current-density'), 200)
+    // 0.5 mol/L of a 58.44 g/mol salt: 29.22 g/L
+    near(inKind('0.5 mol/L * 58.44 g/mol', 'mass-concentration'), 29.22)
+  })
+})
+
+describe('names', () => {
+  it('an unknown name reports the name and its offsets in the text as written', () => {
+    const f = failure('foo * 2')
+    expect(f).toMatchObject({ reason: 'unknown-name', name: 'foo', start: 0, end: 3 })
+    const g = failure('2 A * qq')
+    expect(g).toMatchObject({ reason: 'unknown-name', name: 'qq', start: 6, end: 8 })
+    expect(g.message).toContain('qq')
+  })
+
+  it('offsets count the text as written even when `°C`, `µ` or `·` were rewritten', () => {
+    // '22 °C + qq': q is at index 8 of the original text ('2','2',' ','°','C',' ','+',' ','q')
+    expect(failure('22 °C + qq')).toMatchObject({ reason: 'unknown-name', name: 'qq', start: 8, end: 10 })
+    // '5 µA · qq': q at index 7
+    expect(failure('5 µA · qq')).toMatchObject({ reason: 'unknown-name', name: 'qq', start: 7, end: 9 })
+  })
+
+  it('a let value from the scope is used, and may shadow a unit name', () => {
+    const scope = new Map<string, Value>([['area', value('36 cm^2')], ['min', 3]])
+    const v = value('40 mA/cm^2 * area', scope)
+    near(inKindUnit(v, 'current'), 1.44)
+    // `min` is a let value here: 2 × 3 = 6, a plain number
+    expect(value('2 * min', scope)).toBe(6)
+  })
+
+  it('names of mathjs functions and constants are not reachable', () => {
+    for (const name of ['faraday', 'createUnit', 'parse', 'evaluate', 'e', 'i']) {
+      expect(failure(name)).toMatchObject({ reason: 'unknown-name', name })
+    }
+  })
+})
+
+describe('refused constructs', () => {
+  const refused: [string, string][] = [
+    ['sin(2)', 'a function other than sqrt/abs'],
+    ['min(1, 2)', 'min as a function'],
+    ['evaluate("1+1")', 'evaluate'],
+    ['import(x)', 'import'],
+    ['x = 3', 'assignment'],
+    ['f(x) = x', 'function assignment'],
+    ['[1, 2]', 'a matrix'],
+    ['1:3', 'a range'],
+    ['{a: 1}', 'an object'],
+    ['a.b', 'an accessor'],
+    ['a[1]', 'an index'],
+    ['true ? 1 : 2', 'a conditional'],
+    ['1 < 2', 'a comparison operator'],
+    ['1 < 2 < 3', 'a chained comparison'],
+    ['1 == 1', 'equality'],
+    ['"text"', 'a string'],
+    ['1; 2', 'a block'],
+    ['7 mod 3', 'mod'],
+    ['3!', 'factorial'],
+  ]
+  it.each(refused)('%s (%s) is refused', (text) => {
+    const f = failure(text)
+    expect(f.reason).toBe('refused')
+    expect(f.start).toBeGreaterThanOrEqual(0)
+    expect(f.end).toBeLessThanOrEqual(text.length)
+    expect(f.end).toBeGreaterThan(f.start)
+  })
+
+  it('a refused function call points at the function name', () => {
+    expect(failure('2 * sin(2)')).toMatchObject({ reason: 'refused', start: 4, end: 7 })
+  })
+
+  it('mixing kinds in a sum is a math failure, not a crash', () => {
+    expect(failure('1 A + 1 V').reason).toBe('math')
+    expect(failure('1 / 0').reason).toBe('math')
+  })
+
+  it('a syntax error is reported as such', () => {
+    expect(failure('2 A +').reason).toBe('syntax')
+    expect(failure('').reason).toBe('syntax')
+  })
+})
+
+describe('length and nesting caps', () => {
+  it(`an expression of ${MAX_EXPRESSION_LENGTH} characters is read, one more is 'too-long'`, () => {
+    expect(MAX_EXPRESSION_LENGTH).toBe(400)
+    const ok = '2' + ' '.repeat(397) + ' A' // 1 + 397 + 2 = 400 characters
+    expect(ok.length).toBe(400)
+    near(inKindUnit(value(ok), 'current'), 2)
+    const long = '2' + ' '.repeat(398) + ' A' // 401 characters
+    expect(long.length).toBe(401)
+    expect(failure(long)).toMatchObject({ reason: 'too-long', start: 0, end: 401 })
+  })
+
+  it(`nesting of ${MAX_NESTING} parentheses is read, 33 is 'too-long'`, () => {
+    expect(MAX_NESTING).toBe(32)
+    const nest = (n: number) => '('.repeat(n) + '1' + ')'.repeat(n)
+    expect(value(nest(32))).toBe(1)
+    expect(failure(nest(33)).reason).toBe('too-long')
+    expect(failure(nest(200)).reason).toBe('too-long')
+  })
+
+  it("a deep chain of unary minus is 'too-long' too", () => {
+    expect(failure('- '.repeat(40) + '1').reason).toBe('too-long')
+  })
+})
+
+describe('the sandbox', () => {
+  const names = ['import', 'createUnit', 'evaluate', 'parse', 'simplify', 'derivative', 'resolve', 'reviver'] as const
+  it.each(names)('%s is disabled', (name) => {
+    expect(sandbox.tryDisabled(name)).toContain('disabled')
+  })
+})
+
+describe('the cache', () => {
+  it('the same text evaluated twice gives the same result', () => {
+    const a = value('2 h + 30 min')
+    const b = value('2 h + 30 min')
+    near(toNumber(a, 's'), 9000)
+    near(toNumber(b, 's'), 9000)
+  })
+
+  it('a cached expression still honours a different scope each time', () => {
+    const text = 'q_cache_probe * 2'
+    near(toNumber(value(text, new Map([['q_cache_probe', value('1 A')]])), 'A'), 2)
+    const v = value(text, new Map([['q_cache_probe', value('3 V')]]))
+    expect(kindOf(v)).toBe('voltage')
+    near(toNumber(v, 'V'), 6)
+    expect(value(text, new Map([['q_cache_probe', 5]]))).toBe(10)
+    expect(failure(text)).toMatchObject({ reason: 'unknown-name', name: 'q_cache_probe' })
+  })
+
+  it('a cached failure stays a failure', () => {
+    expect(failure('sin(1)').reason).toBe('refused')
+    expect(failure('sin(1)').reason).toBe('refused')
+  })
+})
+
+describe('normalise', () => {
+  it('rewrites the typographic forms and maps every character back', () => {
+    const n = normalise('22 °C')
+    expect(n.text).toBe('22 degC')
+    // '°C' (2 characters at 3-4) became 'degC' (4 characters), all mapped back to 3
+    expect(n.map).toEqual([0, 1, 2, 3, 3, 3, 3, 5])
+  })
+
+  it('handles wt%, ·, ×, µ, ², ³ and −', () => {
+    expect(normalise('25 wt%').text).toBe('25 wtpct')
+    expect(normalise('2·3×4⋅5').text).toBe('2*3*4*5')
+    expect(normalise('5 µA').text).toBe('5 uA')
+    expect(normalise('5 μA').text).toBe('5 uA')
+    expect(normalise('cm² dm³').text).toBe('cm^2 dm^3')
+    expect(normalise('−1').text).toBe('-1')
+    expect(normalise('50 °F').text).toBe('50 degF')
+  })
+
+  it('leaves plain text alone, with an identity map plus the end', () => {
+    const n = normalise('2 A')
+    expect(n.text).toBe('2 A')
+    expect(n.map).toEqual([0, 1, 2, 3])
+  })
+
+  it('does not rewrite `wt%` inside a longer word', () => {
+    expect(normalise('xwt%').text).toBe('xwt%')
+  })
+})
+
+describe('fmt', () => {
+  // expected strings are rounding by hand to 3 significant figures (the default)
+  it.each([
+    [1.23456, 3, '1.23'],
+    [1.235, 2, '1.2'],
+    [0.0012345, 3, '0.00123'],
+    [123.456, 3, '123'],
+    [123456, 3, '123456'],
+    [1234567, 3, '1.23e6'],
+    [0.0001234, 3, '1.23e-4'],
+    [0, 3, '0'],
+    [-0.5, 3, '-0.5'],
+    [1, 3, '1'],
+    [2.5, 4, '2.5'],
+    [96485.33212, 9, '96485.3321'],
+  ])('fmt(%d, %d) = %s', (n, sig, s) => {
+    expect(fmt(n, sig)).toBe(s)
+  })
+
+  it('non-finite numbers are printed as such', () => {
+    expect(fmt(Infinity)).toBe('Infinity')
+    expect(fmt(NaN)).toBe('NaN')
+  })
+})
