@@ -110,6 +110,8 @@ export interface StepFact {
   label: string
   span: Span
   currentA?: number
+  /** The current clause as written. */
+  currentText?: string
   /** Set when the current came from a current density. */
   densityAm2?: number
   voltageV?: number
@@ -562,6 +564,7 @@ class Evaluator {
       switch (c.keyword.text) {
         case 'current': {
           s.hasCurrentClause = true
+          s.currentText = c.expr.text
           const q = this.quantity(n, c.expr, `the current of ${stepName}`, ['current', 'current-density'], 'positive', c.keyword)
           if (q.number === undefined) break
           if (q.kind === 'current') s.currentA = q.number
@@ -602,6 +605,7 @@ class Evaluator {
     const t = this.m.totals
     let energyKnown = true
     let energy = 0
+    const lastCharged = this.m.steps.filter((x) => x.chargeC !== undefined).at(-1)
     for (const s of this.m.steps) {
       if (s.seconds !== undefined) t.seconds += s.seconds
       if (s.chargeC === undefined) {
@@ -618,7 +622,9 @@ class Evaluator {
       const working = [
         s.densityAm2 !== undefined && s.usedArea
           ? `I = j·A = ${fmt(s.densityAm2 / 10, 4)} mA/cm² × ${fmt(s.usedArea.cm2, 4)} cm² (${s.usedArea.from}) = ${fmt(s.currentA!, 4)} A`
-          : `I = ${fmt(s.currentA!, 4)} A`,
+          : s.currentText && !/^\s*[\d.]+\s*A\s*$/.test(s.currentText)
+            ? `I = ${s.currentText} = ${fmt(s.currentA!, 4)} A`
+            : `I = ${fmt(s.currentA!, 4)} A`,
         `Q = I·t = ${fmt(s.currentA!, 4)} A × ${formatDuration(s.seconds!)} = ${fmt(Ah, 4)} A·h = ${fmt(Q, 4)} C`,
         `n(e⁻) = Q/F = ${fmt(Q, 4)} C ÷ ${fmt(FARADAY, 9)} C/mol = ${fmt(ne, 4)} mol`,
       ]
@@ -640,7 +646,7 @@ class Evaluator {
         parts.push(`${fmt(E / 3600)} W·h`)
         working.push(`E = U·Q = ${fmt(s.voltageV, 4)} V × ${fmt(Ah, 4)} A·h = ${fmt(E / 3600, 4)} W·h`)
       } else energyKnown = false
-      if (this.m.steps.length > 1 && s === this.m.steps[this.m.steps.length - 1]) {
+      if (s === lastCharged && this.m.steps.filter((x) => x.chargeC !== undefined).length > 1) {
         parts.push(`Σ ${fmt(t.chargeC / 3600)} A·h`)
         working.push(`all steps: Q = ${fmt(t.chargeC / 3600, 4)} A·h = ${fmt(t.chargeC, 4)} C, n(e⁻) = ${fmt(t.electronMol, 4)} mol`)
       }
