@@ -19,11 +19,11 @@ describe('hover', () => {
     expect(h?.markdown).toContain('Q = I·t = 1.44 A × 5 h = 7.2 A·h')
   })
 
-  it('shows the current from a density and the anode area', () => {
+  it('shows the current from a density and the cathode area', () => {
     const m = marked(`${CELL}let area = 36 cm^2\nstep 1: current 40 mA/c‸m^2 for 5 h\n`)
     const h = hoverAt(analyze(m.text), m.cursor!)
     // 40 mA/cm² × 36 cm² = 1440 mA = 1.44 A (arithmetic)
-    expect(h?.markdown).toContain('I = j·A = 40 mA/cm² × 36 cm² (anode mmo-titanium) = 1.44 A')
+    expect(h?.markdown).toContain('I = j·A = 40 mA/cm² × 36 cm² (cathode nickel) = 1.44 A')
   })
 
   it('shows a formula with its molar mass', () => {

@@ -257,13 +257,13 @@ describe('hydrogen at 0 °C and 101.325 kPa', () => {
 
 // ---- step arithmetic ---------------------------------------------------------------------------
 describe('steps', () => {
-  it('a current density is multiplied by the anode area: 40 mA/cm^2 on 36 cm^2 for 5 h = 7.2 A·h', () => {
+  it('a current density is multiplied by the cathode area: 40 mA/cm^2 on 36 cm^2 for 5 h = 7.2 A·h', () => {
     const text = [
       'let area = 36 cm^2',
       'cell',
       '  compartment bath 1 L',
-      '  anode platinum in bath, area area',
-      '  cathode nickel in bath, area 50 cm^2',
+      '  anode platinum in bath, area 50 cm^2',
+      '  cathode nickel in bath, area area',
       'step 1: current 40 mA/cm^2 for 5 h',
       '',
     ].join('\n')
@@ -275,6 +275,21 @@ describe('steps', () => {
     const c = a.computed.find((x) => x.key === 'step.charge')!
     expectRel(c.value, 25920, 1e-12)
     expect(c.unit).toBe('C')
+  })
+
+  it('`on anode` refers a current density to the anode area instead', () => {
+    const text = [
+      'cell',
+      '  compartment bath 1 L',
+      '  anode platinum in bath, area 36 cm^2',
+      '  cathode nickel in bath, area 50 cm^2',
+      'step 1: current 40 mA/cm^2 on anode for 5 h',
+      '',
+    ].join('\n')
+    const a = run(text)
+    // by hand: 0.040 A/cm^2 × 36 cm^2 = 1.44 A
+    expectRel(a.model.steps[0].currentA, 1.44, 1e-12)
+    expect(a.diagnostics.filter((d) => d.severity === 'error')).toEqual([])
   })
 
   it('a constant-voltage step with its current gives the energy V·I·t', () => {
@@ -386,6 +401,12 @@ describe('feed limits', () => {
     // steps: 100 mA/cm^2 × 50 cm^2 = 5 A for 6 h at 90 % + 3 A for 1 h at 80 %:
     //   effective charge = 30 A·h × 0.9 + 3 A·h × 0.8 = 27 + 2.4 = 29.4 A·h
     //   max KOH = 29.4 × 3600 / 96485.33212 × 56.1053 = 61.545 g (K⁺ fed: 2.60 mol, not limiting)
-    expectRel(maxGrams(a)[0], ((29.4 * AH) / F_HAND) * M_KOH, 1e-6)
+    // The expect line states what is in the product side after the run, which includes the 5 g of
+    // KOH charged before it: max = 5 g + 61.545 g.
+    expectRel(maxGrams(a)[0], 5 + ((29.4 * AH) / F_HAND) * M_KOH, 1e-6)
+    // observe KOH 52.8 g: formed = 52.8 − 5 = 47.8 g; at 100 %: 33 A·h × 3600 / F × 56.1053 g/mol
+    //   current efficiency = 47.8 / 69.078 = 0.6920 (by hand)
+    const ce = a.computed.find((c) => c.key === 'observe.efficiency')!
+    expectRel(ce.value, 47.8 / (((33 * AH) / F_HAND) * M_KOH), 1e-6)
   })
 })

@@ -11,6 +11,7 @@ import {
   fmt,
   formatValue,
   inKindUnit,
+  isUnitSymbol,
   kindOf,
   type ExprFailure,
   type Kind,
@@ -31,6 +32,8 @@ export interface QuantityFact {
   /** Value in the kind's stored unit (see KIND_UNIT), when the kind is one expected. */
   number?: number
   constraint?: 'positive' | 'non-negative' | 'fraction'
+  /** A `let` value: any quantity is fine. */
+  anyKind?: boolean
   /** The clause keyword or statement keyword this expression follows (for quick fixes). */
   keyword?: Tok
 }
@@ -54,6 +57,8 @@ export interface Declaration {
   line: number
   tok: Tok
   of: 'value' | 'compartment'
+  /** A value named like a unit (`min`, `h`, `A`): it is not defined, so the unit keeps its meaning. */
+  shadowsUnit?: boolean
 }
 
 export interface Compartment {
@@ -132,8 +137,12 @@ export interface YieldFact {
   formula: FormulaFact
   compartment?: Tok
   quantity: QuantityFact
-  /** Stated amount in mol. */
+  /** Stated amount in mol: what is there after the run (planned or measured). */
   mol?: number
+  /** The same substance charged before the run into that compartment, mol (0 for gases). */
+  initialMol: number
+  /** Stated amount less what was charged: formed by the run, mol. */
+  formedMol?: number
   reaction?: Reaction
   noReaction?: string
   /** Where the product forms is not where the line says. */
@@ -196,9 +205,11 @@ export function buildModel(tree: SyntaxTree): Model {
   // Pass 1: named values, in order (a value may use the values defined above it).
   for (const n of tree.lines) {
     if (n.kind !== 'let') continue
-    m.declarations.push({ line: n.line, tok: n.name, of: 'value' })
+    const shadowsUnit = isUnitSymbol(n.name.text)
+    m.declarations.push({ line: n.line, tok: n.name, of: 'value', ...(shadowsUnit ? { shadowsUnit } : {}) })
     const q = ev.quantity(n, n.expr, `the value of \`${n.name.text}\``, ANY_KIND)
-    if (q.value !== undefined && !m.values.has(n.name.text)) m.values.set(n.name.text, q.value)
+    q.anyKind = true
+    if (q.value !== undefined && !m.values.has(n.name.text) && !shadowsUnit) m.values.set(n.name.text, q.value)
   }
   // Pass 2: conditions and the cell.
   for (const n of tree.lines) {
@@ -541,11 +552,17 @@ class Evaluator {
     }
   }
 
-  anodeArea(): { cm2: number; from: string } | undefined {
-    const a = this.m.electrodes.find((e) => e.role === 'anode' && e.areaCm2 !== undefined)
-    if (a) return { cm2: a.areaCm2!, from: `anode ${a.material.text}` }
-    const c = this.m.electrodes.find((e) => e.role === 'cathode' && e.areaCm2 !== undefined)
-    if (c) return { cm2: c.areaCm2!, from: `cathode ${c.material.text}` }
+  /**
+   * The electrode area a current density refers to: the cathode's unless `on anode` says
+   * otherwise (plating and electrowinning quote cathode current density; in membrane cells the
+   * areas are usually equal). Falls back to the other electrode when the preferred one has no area.
+   */
+  referenceArea(prefer: 'anode' | 'cathode' = 'cathode'): { cm2: number; from: string; role: 'anode' | 'cathode' } | undefined {
+    const other = prefer === 'cathode' ? 'anode' : 'cathode'
+    for (const role of [prefer, other] as const) {
+      const e = this.m.electrodes.find((x) => x.role === role && x.areaCm2 !== undefined)
+      if (e) return { cm2: e.areaCm2!, from: `${role} ${e.material.text}`, role }
+    }
     return undefined
   }
 
@@ -567,10 +584,11 @@ class Evaluator {
           s.currentText = c.expr.text
           const q = this.quantity(n, c.expr, `the current of ${stepName}`, ['current', 'current-density'], 'positive', c.keyword)
           if (q.number === undefined) break
+          if (q.number <= 0) break // out of range: reported, and kept out of the totals
           if (q.kind === 'current') s.currentA = q.number
           else {
             s.densityAm2 = q.number
-            const area = this.anodeArea()
+            const area = this.referenceArea(c.on?.text as 'anode' | 'cathode' | undefined)
             if (area) {
               s.usedArea = area
               s.currentA = q.number * area.cm2 * 1e-4
@@ -581,18 +599,18 @@ class Evaluator {
         case 'voltage': {
           s.hasVoltageClause = true
           const q = this.quantity(n, c.expr, `the cell voltage of ${stepName}`, ['voltage'], 'positive', c.keyword)
-          if (q.number !== undefined) s.voltageV = q.number
+          if (q.number !== undefined && q.number > 0) s.voltageV = q.number
           break
         }
         case 'for': {
           s.hasDurationClause = true
           const q = this.quantity(n, c.expr, `the duration of ${stepName}`, ['time'], 'positive', c.keyword)
-          if (q.number !== undefined) s.seconds = q.number
+          if (q.number !== undefined && q.number > 0) s.seconds = q.number
           break
         }
         case 'efficiency': {
           const q = this.quantity(n, c.expr, `the current efficiency of ${stepName}`, ['dimensionless'], 'fraction', c.keyword)
-          if (q.number !== undefined) s.efficiency = q.number
+          if (q.number !== undefined && q.number > 0 && q.number <= 1) s.efficiency = q.number
           break
         }
       }
@@ -632,13 +650,14 @@ class Evaluator {
       if (eff < 1) {
         working.push(`at ${fmt(eff * 100)} % current efficiency: ${fmt(ne * eff, 4)} mol e⁻ go to the product`)
       }
-      const area = s.usedArea ?? this.anodeArea()
-      if (area && s.densityAm2 === undefined) {
-        const j = (s.currentA! / area.cm2) * 1000
-        parts.push(`${fmt(j)} mA/cm²`)
-        working.push(`j = I/A = ${fmt(s.currentA!, 4)} A ÷ ${fmt(area.cm2, 4)} cm² (${area.from}) = ${fmt(j, 4)} mA/cm²`)
-      } else if (s.usedArea) {
-        parts.unshift(`${fmt(s.currentA!)} A`)
+      if (s.usedArea) parts.unshift(`${fmt(s.currentA!)} A`)
+      // Current density at each electrode with an area; the hint shows the reference one.
+      const ref = s.usedArea ?? this.referenceArea()
+      if (ref && s.densityAm2 === undefined) parts.push(`${fmt((s.currentA! / ref.cm2) * 1000)} mA/cm²`)
+      for (const e of this.m.electrodes) {
+        if (e.areaCm2 === undefined) continue
+        const j = (s.currentA! / e.areaCm2) * 1000
+        working.push(`j = I/A = ${fmt(s.currentA!, 4)} A ÷ ${fmt(e.areaCm2, 4)} cm² (${e.role} ${e.material.text}) = ${fmt(j, 4)} mA/cm²`)
       }
       if (s.voltageV !== undefined) {
         const E = s.voltageV * Q
@@ -676,7 +695,7 @@ class Evaluator {
     const gas = lookup.ok && lookup.reaction.gas
     const kinds: Kind[] = gas ? ['mass', 'amount', 'volume'] : ['mass', 'amount']
     const q = this.quantity(n, n.quantity, `the ${n.kind === 'expect' ? 'planned' : 'measured'} amount of ${n.formula.text}`, kinds, 'non-negative')
-    const y: YieldFact = { line: n.line, kind: n.kind, formula: ff, quantity: q, ...(n.compartment ? { compartment: n.compartment } : {}) }
+    const y: YieldFact = { line: n.line, kind: n.kind, formula: ff, quantity: q, initialMol: 0, ...(n.compartment ? { compartment: n.compartment } : {}) }
     this.m.yields.push(y)
     if (!lookup.ok) {
       if (f.ok) y.noReaction = lookup.why
@@ -687,32 +706,36 @@ class Evaluator {
     const M = f.molarMass
     const Vm = (GAS_CONSTANT * this.m.temperatureK) / this.m.pressurePa // m³/mol
     if (gas && q.kind === 'volume') y.litresPerMol = Vm * 1000
-    if (q.number !== undefined) {
-      y.mol = q.kind === 'mass' ? q.number / M : q.kind === 'amount' ? q.number : (q.number / 1000) / Vm
+    if (q.number !== undefined && q.number >= 0) {
+      y.mol = q.kind === 'mass' ? q.number / M : q.kind === 'amount' ? q.number : q.number / 1000 / Vm
     }
     // Where does it form?
     const electrodes = this.m.electrodes.filter((e) => e.role === r.electrode)
     if (comp && electrodes.length > 0 && !electrodes.some((e) => e.compartment === comp.name)) {
       y.wrongCompartment = { expected: r.electrode, compartment: comp.name }
     }
+    // The stated amount is what is there after the run: what was charged of the same substance
+    // into that compartment is not formed by the run. (Gases leave the cell, so none is counted.)
+    const where = comp ?? (electrodes.length === 1 ? this.m.compartments.get(electrodes[0].compartment) : undefined)
+    if (!gas && where) y.initialMol = chargedMol(where, f)
+    if (y.mol !== undefined) y.formedMol = y.mol - y.initialMol
     if (this.m.steps.length === 0 || this.m.totals.electronMol === 0) return
     y.maxMol100 = this.m.totals.electronMol / r.electrons
     y.maxMolEff = this.m.totals.effectiveElectronMol / r.electrons
-    // Feed limits.
     const limit = this.feedLimit(r, compName)
     if (limit) {
       y.limitMol = limit.mol
       y.limitWhy = limit.why
     }
-    const maxMol = Math.min(y.maxMolEff, y.limitMol ?? Infinity)
-    const toShown = (mol: number) =>
+    const maxFormed = Math.min(y.maxMolEff, y.limitMol ?? Infinity)
+    const shown = (mol: number) =>
       q.kind === 'volume' ? `${fmt(mol * Vm * 1000)} L` : q.kind === 'amount' ? `${fmt(mol)} mol` : `${fmt(mol * M)} g`
     const pf = prettyFormula(n.formula.text)
     const effNote = this.m.totals.effectiveElectronMol < this.m.totals.electronMol ? ' at the stated efficiencies' : ''
     const working = [
       `${r.electrode}: ${r.equation}  (${r.electrons} e⁻ per ${pf}; ${r.reason})`,
       `n(e⁻) = ${fmt(this.m.totals.electronMol, 4)} mol over all steps${effNote ? `, ${fmt(this.m.totals.effectiveElectronMol, 4)} mol${effNote}` : ''}`,
-      `n(${pf}) ≤ n(e⁻)/${r.electrons} = ${fmt(y.maxMolEff, 4)} mol = ${fmt(y.maxMolEff * M, 4)} g`,
+      `n(${pf}) formed ≤ n(e⁻)/${r.electrons} = ${fmt(y.maxMolEff, 4)} mol = ${fmt(y.maxMolEff * M, 4)} g`,
     ]
     if (gas) {
       working.push(
@@ -720,25 +743,35 @@ class Evaluator {
       )
     }
     if (y.limitMol !== undefined) working.push(`feed limit: ${y.limitWhy}: ${fmt(y.limitMol, 4)} mol = ${fmt(y.limitMol * M, 4)} g`)
-    const planned = y.mol
+    if (y.initialMol > 0) {
+      working.push(`charged before the run into ${where!.name}: ${fmt(y.initialMol, 4)} mol = ${fmt(y.initialMol * M, 4)} g; the stated amount includes it`)
+    }
+    const formed = y.formedMol
     if (n.kind === 'expect') {
+      const feedLimited = y.limitMol !== undefined && y.limitMol < y.maxMolEff
       const label =
-        `max ${toShown(maxMol)}${y.limitMol !== undefined && y.limitMol < y.maxMolEff ? ' (feed-limited)' : ''}` +
-        (planned !== undefined && maxMol > 0 ? ` · plan ${fmt((100 * planned) / maxMol)} % of max` : '')
+        `max ${shown(y.initialMol + maxFormed)}` +
+        (y.initialMol > 0 ? ` incl. ${shown(y.initialMol)} charged` : '') +
+        (feedLimited ? ' (feed-limited)' : '') +
+        (formed !== undefined && maxFormed > 0 ? ` · plan ${fmt((100 * formed) / maxFormed)} % of max` : '')
       this.m.computed.push({
         line: n.line,
         span: n.span,
         anchor: n.span.end,
         key: 'expect.max',
         label,
-        value: maxMol * M,
+        value: (y.initialMol + maxFormed) * M,
         unit: 'g',
         title: `Theoretical ${pf} (Faraday's law)`,
         working,
       })
-    } else if (planned !== undefined && y.maxMol100 > 0) {
-      const ce = planned / y.maxMol100
-      working.push(`current efficiency = measured ÷ n(e⁻)/${r.electrons} at 100 % = ${fmt(planned, 4)} mol ÷ ${fmt(y.maxMol100, 4)} mol = ${fmt(ce * 100, 3)} %`)
+    } else if (formed !== undefined && y.maxMol100 > 0) {
+      const ce = formed / y.maxMol100
+      working.push(
+        `current efficiency = formed ÷ n(e⁻)/${r.electrons} at 100 % = ` +
+          (y.initialMol > 0 ? `(${fmt(y.mol!, 4)} − ${fmt(y.initialMol, 4)}) mol` : `${fmt(formed, 4)} mol`) +
+          ` ÷ ${fmt(y.maxMol100, 4)} mol = ${fmt(ce * 100, 3)} %`,
+      )
       this.m.computed.push({
         line: n.line,
         span: n.span,
@@ -823,6 +856,16 @@ let waterM: number | undefined
 function WATER_M(): number {
   waterM ??= parseFormula('H2O').molarMass
   return waterM
+}
+
+/** Moles of a substance (same elements and charge) charged into a compartment. */
+function chargedMol(c: Compartment, f: Formula): number {
+  let mol = 0
+  for (const s of c.solutes.values()) {
+    if (s.formula.charge !== f.charge || s.formula.counts.size !== f.counts.size) continue
+    if ([...f.counts].every(([el, k]) => s.formula.counts.get(el) === k)) mol += s.mol
+  }
+  return mol
 }
 
 /** The anhydrous part of a hydrate, as the solute. */

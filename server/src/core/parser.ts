@@ -287,7 +287,14 @@ function parseClauses(s: Cursor): Clause[] {
       if (m[3].trim() === '') {
         throw new LineError(`\`${m[1]}\` needs a value`, kwTok.span.start - s.base, kwTok.span.end - s.base)
       }
-      clauses.push({ span: part.span, keyword: kwTok, expr: { text: m[3], span: { start: exprStart, end: exprStart + m[3].length } } })
+      const on = m[1] === 'current' ? /\s+on\s+(anode|cathode)$/.exec(m[3]) : null
+      const exprText = on ? m[3].slice(0, on.index) : m[3]
+      const clause: Clause = { span: part.span, keyword: kwTok, expr: { text: exprText, span: { start: exprStart, end: exprStart + exprText.length } } }
+      if (on) {
+        const onStart = exprStart + m[3].length - on[1].length
+        clause.on = { text: on[1], span: { start: onStart, end: onStart + on[1].length } }
+      }
+      clauses.push(clause)
     }
   }
   return clauses

@@ -23,6 +23,8 @@ export interface Clause {
   span: Span
   keyword: Tok
   expr: Expr
+  /** `current 2 A/dm^2 on cathode`: the electrode whose area a current density refers to. */
+  on?: Tok
 }
 
 interface Base {

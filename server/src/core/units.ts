@@ -227,7 +227,10 @@ function compile(text: string): CompileResult {
           }
           return
         }
-        for (const a of n.args ?? []) visit(a, level + 1)
+        // A chain of + - * / is read by a loop and its depth is bounded by the length cap, so it does
+        // not count as nesting; unary signs and powers are read recursively, so they do.
+        const deeper = fn === 'pow' || (n.args ?? []).length === 1
+        for (const a of n.args ?? []) visit(a, deeper ? level + 1 : level)
         return
       }
       case 'FunctionNode': {
@@ -453,8 +456,23 @@ export function inKindUnit(v: Value, kind: Kind): number {
 /** Human text of a value as written by the user's units, e.g. "1.44 A". */
 export function formatValue(v: Value): string {
   if (typeof v === 'number') return fmt(v)
-  const n = v.toNumber(v.formatUnits())
-  return `${fmt(n)} ${prettyUnit(v.formatUnits())}`
+  const s = v.simplify()
+  const units = s.formatUnits()
+  return `${fmt(s.toNumber(units))} ${prettyUnit(units)}`
+}
+
+/** Is this name a unit (so a `let` of that name would change what the unit means)? */
+export function isUnitSymbol(name: string): boolean {
+  return isUnitName(name)
+}
+
+/** Format rounding toward zero, for a limit that must not be exceeded once rounded. */
+export function fmtDown(n: number, sig = 3): string {
+  if (!Number.isFinite(n) || n === 0) return fmt(n, sig)
+  const e = Math.floor(Math.log10(Math.abs(n))) - sig + 1
+  const f = Math.pow(10, e)
+  const down = Math.trunc(n / f) * f
+  return fmt(Number(down.toPrecision(sig)), sig)
 }
 
 /** Make a quantity from a number and unit text (internal use only; `unit` is trusted). */

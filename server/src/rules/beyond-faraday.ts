@@ -2,7 +2,7 @@
 // law with the steps' current efficiencies), or more than the charged feed contains.
 import { fix } from '../core/diagnostics'
 import { prettyFormula } from '../core/formula'
-import { fmt } from '../core/units'
+import { fmt, fmtDown } from '../core/units'
 import type { Rule } from './rule'
 
 export const beyondFaraday: Rule = {
@@ -11,19 +11,24 @@ export const beyondFaraday: Rule = {
   summary: "A planned yield larger than Faraday's law allows for the charge passed (or than the feed holds).",
   check({ model }) {
     return model.yields.flatMap((y) => {
-      if (y.kind !== 'expect' || y.mol === undefined || y.maxMolEff === undefined || !y.reaction) return []
+      if (y.kind !== 'expect' || y.formedMol === undefined || y.maxMolEff === undefined || !y.reaction) return []
       const feedLimited = y.limitMol !== undefined && y.limitMol < y.maxMolEff
       const max = feedLimited ? y.limitMol! : y.maxMolEff
-      if (y.mol <= max * (1 + 1e-9)) return []
+      if (y.formedMol <= max * (1 + 1e-9)) return []
       const M = y.formula.formula.molarMass
       const pf = prettyFormula(y.formula.tok.text)
       const q = y.quantity
       // Speak in the unit the line uses: mass, amount, or gas volume at the run's conditions.
-      const shown = q.kind === 'amount' ? `${fmt(max)} mol` : y.litresPerMol ? `${fmt(max * y.litresPerMol)} L` : `${fmt(max * M)} g`
+      const total = y.initialMol + max
+      const shownWith = (f: (n: number) => string) =>
+        q.kind === 'amount' ? `${f(total)} mol` : y.litresPerMol ? `${f(total * y.litresPerMol)} L` : `${f(total * M)} g`
+      const shown = shownWith(fmt)
+      // Round the replacement down, so the planned amount it writes stays within the maximum.
+      const replacement = shownWith(fmtDown)
+      const charged = y.initialMol > 0 ? `, with the ${fmt(y.initialMol * M)} g charged before the run` : ''
       const why = feedLimited
-        ? `the feed holds enough for only ${shown} (${y.limitWhy})`
-        : `the charge passed makes at most ${shown} (${fmt(max)} mol at ${y.reaction.electrons} e⁻ each)`
-      const replacement = shown
+        ? `the feed allows at most ${shown}${charged} (${y.limitWhy})`
+        : `the charge passed allows at most ${shown}${charged} (${fmt(max)} mol formed at ${y.reaction.electrons} e⁻ each)`
       return [
         {
           code: 'beyond-faraday',

@@ -10,8 +10,8 @@ export const efficiencyOver100: Rule = {
   summary: 'A measured yield that implies more than 100 % current efficiency.',
   check({ model }) {
     return model.yields.flatMap((y) => {
-      if (y.kind !== 'observe' || y.mol === undefined || !y.maxMol100) return []
-      const ce = y.mol / y.maxMol100
+      if (y.kind !== 'observe' || y.formedMol === undefined || !y.maxMol100) return []
+      const ce = y.formedMol / y.maxMol100
       if (ce <= 1 + 1e-9) return []
       return [
         {

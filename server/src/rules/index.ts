@@ -10,6 +10,7 @@ import { outsideCell } from './outside-cell'
 import { overfilled } from './overfilled'
 import { productReaction } from './product-reaction'
 import type { Rule } from './rule'
+import { shadowsUnit } from './shadows-unit'
 import { stepIncomplete } from './step-incomplete'
 import { syntax } from './syntax'
 import { unknownElement } from './unknown-element'
@@ -28,6 +29,7 @@ export const RULES: readonly Rule[] = [
   zeroForO,
   badFormula,
   duplicateName,
+  shadowsUnit,
   unknownKind,
   outsideCell,
   missingElectrode,

@@ -10,18 +10,25 @@ export const outsideCell: Rule = {
   check({ model, index }) {
     const out: Diagnostic[] = []
     const hasCell = model.tree.lines.some((n) => n.kind === 'cell')
+    // The fix can only indent a line that directly continues the cell block (after the `cell` line
+    // or its indented parts, blank lines aside); elsewhere indenting would not put it in the cell.
+    let continuesCell = false
     for (const n of model.tree.lines) {
-      if (!('inCell' in n) || n.inCell) continue
-      const lineStart = index.lineStart(n.line)
-      out.push({
-        code: 'outside-cell',
-        severity: 'warning',
-        message: hasCell
-          ? `\`${n.keyword?.text}\` describes the cell: indent it under the \`cell\` line`
-          : `\`${n.keyword?.text}\` describes the cell: put it, indented, under a \`cell\` line`,
-        span: n.keyword?.span ?? n.span,
-        fixes: hasCell ? [fix('Indent under `cell`', { start: lineStart, end: lineStart + n.indent }, '  ')] : [],
-      })
+      if (n.kind === 'blank') continue
+      const part = 'inCell' in n
+      if (part && !n.inCell) {
+        const lineStart = index.lineStart(n.line)
+        out.push({
+          code: 'outside-cell',
+          severity: 'warning',
+          message: hasCell
+            ? `\`${n.keyword?.text}\` describes the cell: ${continuesCell ? 'indent it under the `cell` line' : 'move it, indented, under the `cell` line'}`
+            : `\`${n.keyword?.text}\` describes the cell: put it, indented, under a \`cell\` line`,
+          span: n.keyword?.span ?? n.span,
+          fixes: continuesCell && n.indent === 0 ? [fix('Indent under `cell`', { start: lineStart, end: lineStart }, '  ')] : [],
+        })
+      }
+      continuesCell = n.kind === 'cell' || (part && n.inCell) || (continuesCell && part && n.indent === 0)
     }
     return out
   },

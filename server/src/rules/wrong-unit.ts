@@ -12,7 +12,7 @@ export const wrongUnit: Rule = {
   summary: 'A value whose unit does not fit where it stands (a current in volts, a mass where a volume belongs).',
   check({ model }) {
     return model.quantities.flatMap((q) => {
-      if (q.value === undefined || q.kind === undefined) return []
+      if (q.value === undefined || q.kind === undefined || q.anyKind) return []
       if (q.kind !== 'other' && q.expected.includes(q.kind)) return []
       const got =
         q.kind === 'other'
