@@ -67,6 +67,19 @@ describe('computed values', () => {
   })
 })
 
+describe('run totals', () => {
+  it('shows the whole run on the run line, with the energy when every step states a voltage', () => {
+    const src = `run "t"\n${CELL}step 1: current 1 A, voltage 3 V for 1 h\nstep 2: current 2 A, voltage 3.5 V for 30 min\n`
+    const a = analyze(src)
+    const c = a.computed.find((x) => x.key === 'run.totals')!
+    expect(c.line).toBe(0)
+    // 1 A × 1 h + 2 A × 0.5 h = 2 A·h = 7200 C over 1.5 h; 3 V × 1 A·h + 3.5 V × 1 A·h = 6.5 W·h (arithmetic)
+    expect(c.value).toBeCloseTo(7200, 9)
+    // n(e⁻) = 7200 C ÷ 96485.33212 C/mol (CODATA 2018 F) = 0.0746 mol
+    expect(c.label).toBe('1.5 h · 2 A·h · 0.0746 mol e⁻ · 6.5 W·h')
+  })
+})
+
 describe('outline', () => {
   it('nests the cell parts under the cell', () => {
     const src = `run "t"\nlet x = 2 A\n${CELL}charge feed: NaCl 1 g\nstep 1: current x for 1 h\nexpect H2 1 g\n`

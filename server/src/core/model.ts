@@ -682,6 +682,28 @@ class Evaluator {
       })
     }
     if (energyKnown && this.m.steps.length > 0) t.energyJ = energy
+    // The run line carries the whole run at a glance.
+    const run = this.m.tree.lines.find((n) => n.kind === 'run')
+    if (run && t.chargeC > 0) {
+      const parts = [formatDuration(t.seconds), `${fmt(t.chargeC / 3600)} A·h`, `${fmt(t.electronMol)} mol e⁻`]
+      if (t.energyJ !== undefined) parts.push(`${fmt(t.energyJ / 3600)} W·h`)
+      const counted = this.m.steps.filter((s) => s.chargeC !== undefined).length
+      this.m.computed.push({
+        line: run.line,
+        span: run.span,
+        anchor: run.span.end,
+        key: 'run.totals',
+        label: parts.join(' · '),
+        value: t.chargeC,
+        unit: 'C',
+        title: 'The whole run',
+        working: [
+          `${counted} of ${this.m.steps.length} steps with a known charge`,
+          `duration ${formatDuration(t.seconds)}; Q = ${fmt(t.chargeC / 3600, 4)} A·h = ${fmt(t.chargeC, 4)} C; n(e⁻) = Q/F = ${fmt(t.electronMol, 4)} mol`,
+          ...(t.energyJ !== undefined ? [`E = Σ U·Q = ${fmt(t.energyJ / 3600, 4)} W·h`] : []),
+        ],
+      })
+    }
   }
 
   yieldLine(n: Extract<LineNode, { kind: 'expect' | 'observe' }>): void {
