@@ -456,6 +456,38 @@ describe('shadows-unit', () => {
   })
 })
 
+// ---- approximate-amount ------------------------------------------------------------------------
+describe('approximate-amount', () => {
+  it('a concentrated solution by volume with wt% is a warning; a dilute one a note', () => {
+    const src = BASE.replace(
+      'charge product: water 200 mL',
+      'charge product: water 100 mL, ⟦H2SO4 solution 10 mL at 98 wt%⟧, ⟦NaOH solution 50 mL at 2 wt%⟧',
+    )
+    const { ds } = at(src, 'approximate-amount', ['warning', 'information'])
+    // 98 wt% sulfuric acid is about 1.84 g/mL (CRC Handbook, from memory): a water-density guess is 46 % low
+    expect(ds[0].message).toContain('off by tens of percent')
+  })
+
+  it('is silent when the amount needs no density', () => {
+    silent(BASE.replace('charge product: water 200 mL', 'charge product: NaOH solution 40 g at 50 wt%, KOH solution 0.1 L at 2 mol/L'), 'approximate-amount')
+  })
+})
+
+// ---- below-charged -----------------------------------------------------------------------------
+describe('below-charged', () => {
+  it('an observed amount below what was charged is a warning, with a fix that adds the charged amount', () => {
+    const charged = BASE.replace('charge product: water 200 mL', 'charge product: KOH 4 g, water 200 mL')
+    const src = charged.replace('observe KOH 2.5 g', 'observe KOH ⟦3 g⟧').replace('expect KOH 3 g', 'expect KOH 6 g')
+    const { text, ds } = at(src, 'below-charged', 'warning')
+    // 3 g stated + 4 g charged = 7 g
+    fixClears(text, ds[0], charged.replace('observe KOH 2.5 g', 'observe KOH 7 g').replace('expect KOH 3 g', 'expect KOH 6 g'))
+  })
+
+  it('is silent when the stated amount includes what was charged', () => {
+    silent(BASE.replace('charge product: water 200 mL', 'charge product: KOH 1 g, water 200 mL'), 'below-charged')
+  })
+})
+
 // ---- beyond-faraday ----------------------------------------------------------------------------
 describe('beyond-faraday', () => {
   const plating = (metal: string, salt: string, plan: string) =>

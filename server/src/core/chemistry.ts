@@ -16,6 +16,11 @@ export interface Reaction {
   equation: string
   /** Whether the product is a gas (volumes apply). */
   gas: boolean
+  /**
+   * Hydrogen or oxygen from water: it takes whatever current the other reactions at its electrode
+   * leave, so its bound is the full charge and the steps' efficiencies are not applied to it.
+   */
+  fromWater?: boolean
   /** Why this reaction was chosen. */
   reason: string
   /** For a metal: its symbol. For a hydroxide: the cation. */
@@ -50,6 +55,9 @@ const ANIONS: { name: string; counts: Record<string, number>; charge: number }[]
   { name: 'CrO4', counts: { Cr: 1, O: 4 }, charge: -2 },
   { name: 'Cr2O7', counts: { Cr: 2, O: 7 }, charge: -2 },
 ]
+
+/** Gases a protocol may state by volume even where v1 knows no reaction forming them. */
+export const KNOWN_GASES = new Set(['H2', 'O2', 'Cl2', 'CO2', 'N2', 'NH3', 'SO2', 'NO2', 'NO', 'N2O', 'CH4', 'CO', 'O3', 'ClO2'])
 
 /** Metals whose ions are reduced to metal from water at a practical efficiency; usual ion charge. */
 const DEPOSITABLE: Record<string, number> = {
@@ -112,6 +120,31 @@ export function saltIons(f: Formula): SaltIons | undefined {
   return undefined
 }
 
+/** Usual oxidation states of the partners a metal compound is often written with. */
+const PARTNER_STATE: Record<string, number> = { H: 1, O: -2, F: -1, Cl: -1, Br: -1, I: -1, Li: 1, Na: 1, K: 1 }
+
+/**
+ * The oxidation state of metal `el` in a compound: from its ions when the compound is a simple salt
+ * (CuSO4 -> +2), else from the usual states of its partners when they are only H, O, halogens and
+ * alkali metals (CrO3 -> +6, K2Cr2O7 -> +6, HAuCl4 -> +3, H2PtCl6 -> +4). Undefined when unknown.
+ */
+export function metalOxidationState(f: Formula, el: string): number | undefined {
+  const ions = saltIons(f)
+  if (ions && ions.cation === el) return ions.cationCharge
+  const n = f.counts.get(el)
+  if (!f.ok || !n) return undefined
+  let others = 0
+  for (const [e, k] of f.counts) {
+    if (e === el) continue
+    const st = PARTNER_STATE[e]
+    if (st === undefined) return undefined
+    others += st * k
+  }
+  // Hydrate water adds H +1 ×2 and O −2: net zero, so it needs no special case.
+  const ox = (f.charge - others) / n
+  return Number.isInteger(ox) ? ox : undefined
+}
+
 /** Is this formula exactly one element (a metal or an element gas like Cl2)? */
 function singleElement(f: Formula): string | undefined {
   if (f.counts.size !== 1 || f.charge !== 0) return undefined
@@ -133,6 +166,7 @@ export function productReaction(product: Formula, saltsPresent: readonly string[
         electrode: 'cathode',
         electrons: 2,
         gas: true,
+        fromWater: true,
         equation: '2 H₂O + 2 e⁻ → H₂ + 2 OH⁻',
         reason: 'hydrogen is evolved from water at the cathode',
       },
@@ -145,6 +179,7 @@ export function productReaction(product: Formula, saltsPresent: readonly string[
         electrode: 'anode',
         electrons: 4,
         gas: true,
+        fromWater: true,
         equation: '2 H₂O → O₂ + 4 H⁺ + 4 e⁻  (alkaline: 4 OH⁻ → O₂ + 2 H₂O + 4 e⁻)',
         reason: 'oxygen is evolved from water at the anode',
       },
@@ -160,16 +195,20 @@ export function productReaction(product: Formula, saltsPresent: readonly string[
     if (ALKALI_LIKE.has(el)) {
       return { ok: false, why: `${ELEMENT_NAMES[el] ?? el} metal cannot be deposited from water: its ion is not reduced before water is` }
     }
-    // Metal deposition: the ion charge from a salt present, else the usual ion.
+    // Metal deposition: the metal's oxidation state in a salt present, else the usual ion.
     let z: number | undefined
     let from = ''
-    for (const s of saltsPresent) {
-      const ions = saltIons(parseFormula(s))
-      if (ions && ions.cation === el) {
-        z = ions.cationCharge
-        from = s
+    let unclear = ''
+    for (const text of saltsPresent) {
+      const salt = parseFormula(text)
+      if (!salt.counts.has(el)) continue
+      const ox = metalOxidationState(salt, el)
+      if (ox !== undefined && ox > 0) {
+        z = ox
+        from = text
         break
       }
+      unclear ||= text
     }
     if (z === undefined && el in DEPOSITABLE) z = DEPOSITABLE[el]
     if (z === undefined) return { ok: false, why: `no deposition reaction is known for ${el}` }
@@ -181,7 +220,11 @@ export function productReaction(product: Formula, saltsPresent: readonly string[
         gas: false,
         element: el,
         equation: `${el}${superscriptCharge(z)} + ${z} e⁻ → ${el}`,
-        reason: from ? `${el}${superscriptCharge(z)} comes from ${from} in the charge` : `${el}${superscriptCharge(z)} is its usual ion (no ${el} salt is charged)`,
+        reason: from
+          ? `${el}${superscriptCharge(z)} comes from ${from} in the charge`
+          : unclear
+            ? `the charge of ${el} in ${unclear} could not be told; ${el}${superscriptCharge(z)}, its usual ion, is assumed`
+            : `${el}${superscriptCharge(z)} is its usual ion (no ${el} salt is charged)`,
       },
     }
   }

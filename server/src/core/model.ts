@@ -1,8 +1,8 @@
 // The model: what a protocol states, with every expression evaluated, and what follows from it
 // (charge passed, amounts, concentrations, Faraday limits). Plain data; the rules in ../rules turn
-// the facts recorded here into diagnostics, and ./hints turns the computed values into hints.
+// the facts recorded here into diagnostics, and each Computed value is a hint with its working.
 import { FARADAY, GAS_CONSTANT, DEFAULT_PRESSURE_PA, DEFAULT_TEMPERATURE_K, ZERO_CELSIUS, waterDensity } from './constants'
-import { productReaction, materialIsMetal, saltIons, type Reaction } from './chemistry'
+import { KNOWN_GASES, productReaction, materialIsMetal, saltIons, type Reaction } from './chemistry'
 import { parseFormula, prettyFormula, type Formula } from './formula'
 import type { Span } from './positions'
 import type { ChargeItem, LineNode, SyntaxTree, Tok } from './syntax'
@@ -127,8 +127,8 @@ export interface StepFact {
   hasVoltageClause: boolean
   hasDurationClause: boolean
   usedArea?: { cm2: number; from: string }
-  /** A current density was given but no area is known to multiply it by. */
-  densityWithoutArea?: Span
+  /** A current density was given but the part it refers to has no area to multiply it by. */
+  densityWithoutArea?: { span: Span; on: 'anode' | 'cathode' | 'separator' }
 }
 
 export interface YieldFact {
@@ -157,8 +157,18 @@ export interface YieldFact {
   litresPerMol?: number
 }
 
+/** A charge item whose amount needed a density v1 does not have (taken as water's). */
+export interface Approximation {
+  line: number
+  span: Span
+  /** Estimated mass fraction of the solute, %, to judge how far off the amount may be. */
+  massPercent: number
+  suggestion: string
+}
+
 export interface Model {
   tree: SyntaxTree
+  approximations: Approximation[]
   temperatureK: number
   pressurePa: number
   conditionsStated: { temperature: boolean; pressure: boolean }
@@ -183,6 +193,7 @@ const CM2 = 1 // areas are kept in cm²
 export function buildModel(tree: SyntaxTree): Model {
   const m: Model = {
     tree,
+    approximations: [],
     temperatureK: DEFAULT_TEMPERATURE_K,
     pressurePa: DEFAULT_PRESSURE_PA,
     conditionsStated: { temperature: false, pressure: false },
@@ -328,8 +339,11 @@ class Evaluator {
   }
 
   formula(line: number, tok: Tok): FormulaFact {
-    const isWater = WATER_NAMES.has(tok.text)
-    const f: FormulaFact = { line, tok, formula: parseFormula(isWater ? 'H2O' : tok.text), isWater }
+    // A state symbol (`NaCl(aq)`, `H2(g)`) says nothing the analysis needs: read the formula without it.
+    const state = /\((aq|s|l|g)\)$/.exec(tok.text)
+    const bare: Tok = state ? { text: tok.text.slice(0, state.index), span: { start: tok.span.start, end: tok.span.start + state.index } } : tok
+    const isWater = WATER_NAMES.has(bare.text)
+    const f: FormulaFact = { line, tok: bare, formula: parseFormula(isWater ? 'H2O' : bare.text), isWater }
     this.m.formulas.push(f)
     return f
   }
@@ -479,6 +493,7 @@ class Evaluator {
           `≈ m = V·ρ·w = ${given} × ${fmt(rhoW, 4)} g/mL × ${conc} = ${fmt(soluteG, 4)} g`,
           'approximate: the solution density is taken as that of water; state the solution by mass for an exact figure',
         )
+        this.m.approximations.push({ line: n.line, span: item.span, massPercent: c.number, suggestion: 'state the solution by mass' })
       }
     } else {
       solutionG = q.number
@@ -493,6 +508,7 @@ class Evaluator {
           `≈ V = m/ρ = ${given} ÷ ${fmt(rhoW, 4)} g/mL = ${fmt(volumeL * 1000, 4)} mL;  solute ${fmt(soluteG, 4)} g`,
           'approximate: the solution density is taken as that of water; state the solution by volume for an exact figure',
         )
+        this.m.approximations.push({ line: n.line, span: item.span, massPercent: (100 * soluteG) / q.number, suggestion: 'state the solution by volume' })
       }
     }
     const mol = soluteG / M
@@ -553,17 +569,20 @@ class Evaluator {
   }
 
   /**
-   * The electrode area a current density refers to: the cathode's unless `on anode` says
-   * otherwise (plating and electrowinning quote cathode current density; in membrane cells the
-   * areas are usually equal). Falls back to the other electrode when the preferred one has no area.
+   * The area a current density refers to: all cathodes' areas added up, unless `on anode` or
+   * `on separator` says otherwise (plating and electrowinning quote cathode current density; in
+   * membrane cells the areas are usually equal). Undefined when that part has no area: there is
+   * no silent fallback to another part's area.
    */
-  referenceArea(prefer: 'anode' | 'cathode' = 'cathode'): { cm2: number; from: string; role: 'anode' | 'cathode' } | undefined {
-    const other = prefer === 'cathode' ? 'anode' : 'cathode'
-    for (const role of [prefer, other] as const) {
-      const e = this.m.electrodes.find((x) => x.role === role && x.areaCm2 !== undefined)
-      if (e) return { cm2: e.areaCm2!, from: `${role} ${e.material.text}`, role }
-    }
-    return undefined
+  referenceArea(on: 'anode' | 'cathode' | 'separator' = 'cathode'): { cm2: number; from: string; role: 'anode' | 'cathode' | 'separator' } | undefined {
+    const parts =
+      on === 'separator'
+        ? this.m.separators.map((x) => ({ area: x.areaCm2, name: x.type.text }))
+        : this.m.electrodes.filter((x) => x.role === on).map((x) => ({ area: x.areaCm2, name: x.material.text }))
+    if (parts.length === 0 || parts.some((p) => p.area === undefined)) return undefined
+    const cm2 = parts.reduce((sum, p) => sum + p.area!, 0)
+    const from = parts.length === 1 ? `${on} ${parts[0].name}` : `${parts.length} ${on}s together`
+    return { cm2, from, role: on }
   }
 
   step(n: Extract<LineNode, { kind: 'step' }>): void {
@@ -588,11 +607,12 @@ class Evaluator {
           if (q.kind === 'current') s.currentA = q.number
           else {
             s.densityAm2 = q.number
-            const area = this.referenceArea(c.on?.text as 'anode' | 'cathode' | undefined)
+            const on = (c.on?.text ?? 'cathode') as 'anode' | 'cathode' | 'separator'
+            const area = this.referenceArea(on)
             if (area) {
               s.usedArea = area
               s.currentA = q.number * area.cm2 * 1e-4
-            } else s.densityWithoutArea = c.expr.span
+            } else s.densityWithoutArea = { span: c.expr.span, on }
           }
           break
         }
@@ -651,13 +671,14 @@ class Evaluator {
         working.push(`at ${fmt(eff * 100)} % current efficiency: ${fmt(ne * eff, 4)} mol e⁻ go to the product`)
       }
       if (s.usedArea) parts.unshift(`${fmt(s.currentA!)} A`)
-      // Current density at each electrode with an area; the hint shows the reference one.
+      // Current density over each part with an area; the hint shows the reference one (cathode).
       const ref = s.usedArea ?? this.referenceArea()
       if (ref && s.densityAm2 === undefined) parts.push(`${fmt((s.currentA! / ref.cm2) * 1000)} mA/cm²`)
-      for (const e of this.m.electrodes) {
-        if (e.areaCm2 === undefined) continue
-        const j = (s.currentA! / e.areaCm2) * 1000
-        working.push(`j = I/A = ${fmt(s.currentA!, 4)} A ÷ ${fmt(e.areaCm2, 4)} cm² (${e.role} ${e.material.text}) = ${fmt(j, 4)} mA/cm²`)
+      for (const on of ['cathode', 'anode', 'separator'] as const) {
+        const a = this.referenceArea(on)
+        if (!a) continue
+        const j = (s.currentA! / a.cm2) * 1000
+        working.push(`j = I/A = ${fmt(s.currentA!, 4)} A ÷ ${fmt(a.cm2, 4)} cm² (${a.from}) = ${fmt(j, 4)} mA/cm²`)
       }
       if (s.voltageV !== undefined) {
         const E = s.voltageV * Q
@@ -714,7 +735,7 @@ class Evaluator {
     const comp = compName ? this.m.compartments.get(compName) : undefined
     const saltsHere = this.saltsIn(compName)
     const lookup = productReaction(f, saltsHere)
-    const gas = lookup.ok && lookup.reaction.gas
+    const gas = lookup.ok ? lookup.reaction.gas : KNOWN_GASES.has(ff.tok.text)
     const kinds: Kind[] = gas ? ['mass', 'amount', 'volume'] : ['mass', 'amount']
     const q = this.quantity(n, n.quantity, `the ${n.kind === 'expect' ? 'planned' : 'measured'} amount of ${n.formula.text}`, kinds, 'non-negative')
     const y: YieldFact = { line: n.line, kind: n.kind, formula: ff, quantity: q, initialMol: 0, ...(n.compartment ? { compartment: n.compartment } : {}) }
@@ -743,7 +764,8 @@ class Evaluator {
     if (y.mol !== undefined) y.formedMol = y.mol - y.initialMol
     if (this.m.steps.length === 0 || this.m.totals.electronMol === 0) return
     y.maxMol100 = this.m.totals.electronMol / r.electrons
-    y.maxMolEff = this.m.totals.effectiveElectronMol / r.electrons
+    const effElectrons = r.fromWater ? this.m.totals.electronMol : this.m.totals.effectiveElectronMol
+    y.maxMolEff = effElectrons / r.electrons
     const limit = this.feedLimit(r, compName)
     if (limit) {
       y.limitMol = limit.mol
@@ -753,10 +775,13 @@ class Evaluator {
     const shown = (mol: number) =>
       q.kind === 'volume' ? `${fmt(mol * Vm * 1000)} L` : q.kind === 'amount' ? `${fmt(mol)} mol` : `${fmt(mol * M)} g`
     const pf = prettyFormula(n.formula.text)
-    const effNote = this.m.totals.effectiveElectronMol < this.m.totals.electronMol ? ' at the stated efficiencies' : ''
+    const effNote = effElectrons < this.m.totals.electronMol ? ' at the stated efficiencies' : ''
     const working = [
       `${r.electrode}: ${r.equation}  (${r.electrons} e⁻ per ${pf}; ${r.reason})`,
-      `n(e⁻) = ${fmt(this.m.totals.electronMol, 4)} mol over all steps${effNote ? `, ${fmt(this.m.totals.effectiveElectronMol, 4)} mol${effNote}` : ''}`,
+      `n(e⁻) = ${fmt(this.m.totals.electronMol, 4)} mol over all steps${effNote ? `, ${fmt(effElectrons, 4)} mol${effNote}` : ''}`,
+      ...(r.fromWater && this.m.totals.effectiveElectronMol < this.m.totals.electronMol
+        ? [`${pf} from water takes the current the other reactions leave: the bound is the full charge, the steps' efficiencies are not applied`]
+        : []),
       `n(${pf}) formed ≤ n(e⁻)/${r.electrons} = ${fmt(y.maxMolEff, 4)} mol = ${fmt(y.maxMolEff * M, 4)} g`,
     ]
     if (gas) {
@@ -822,6 +847,18 @@ class Evaluator {
 
   /** The most of a product the charged feed allows, where v1 can tell. */
   private feedLimit(r: Reaction, compName: string | undefined): { mol: number; why: string } | undefined {
+    if (r.electrode === 'anode' && r.gas && r.equation.startsWith('2 Cl⁻')) {
+      // Chlorine: two chloride ions per Cl2, from the chlorides charged where the anodes are.
+      const where = compName ? [compName] : [...new Set(this.m.electrodes.filter((e) => e.role === 'anode').map((e) => e.compartment))]
+      let cl = 0
+      for (const name of where) {
+        for (const sol of this.m.compartments.get(name)?.solutes.values() ?? []) {
+          const ions = saltIons(sol.formula)
+          if (ions && ions.anion === 'Cl') cl += sol.mol * ions.anionCount
+        }
+      }
+      return cl > 0 ? { mol: cl / 2, why: `Cl⁻ charged in ${where.join(', ')}` } : undefined
+    }
     if (!r.element) return undefined
     const el = r.element
     const cathodes = this.m.electrodes.filter((e) => e.role === 'cathode')

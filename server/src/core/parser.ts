@@ -120,8 +120,7 @@ function parseLine(raw: string, base: number, line: number, inCell: boolean): Li
         return { kind: 'cell', ...k }
       case 'vessel': {
         s.ws1('a material')
-        const material = s.word('a vessel material, e.g. `vessel polypropylene`')
-        s.end()
+        const material = s.restTok('a vessel material, e.g. `vessel polypropylene`')
         return { kind: 'vessel', ...k, material, inCell: childOfCell }
       }
       case 'compartment': {
@@ -133,8 +132,7 @@ function parseLine(raw: string, base: number, line: number, inCell: boolean): Li
       }
       case 'separator': {
         s.ws1('a separator kind')
-        const type = s.word('a separator kind: cation-exchange, anion-exchange, diaphragm or none')
-        s.ws1('`between`')
+        const type = s.upTo('between', 'a separator kind: cation-exchange, anion-exchange, diaphragm or none')
         s.kw('between')
         s.ws1('a compartment')
         const a = s.ident('a compartment name')
@@ -148,8 +146,7 @@ function parseLine(raw: string, base: number, line: number, inCell: boolean): Li
       case 'anode':
       case 'cathode': {
         s.ws1('a material')
-        const material = s.word(`an electrode material, e.g. \`${kwText} nickel in catholyte\``)
-        s.ws1('`in`')
+        const material = s.upTo('in', `an electrode material, e.g. \`${kwText} nickel in catholyte\``)
         s.kw('in')
         s.ws1('a compartment')
         const compartment = s.ident('a compartment name')
@@ -268,8 +265,8 @@ function parseClauses(s: Cursor): Clause[] {
   const body = s.rest()
   if (body.text.trim() === '') throw new LineError('expected what the step does, e.g. `current 2 A for 3 h`', s.pos)
   for (const piece of s.splitTop(',', body)) {
-    // `for` may follow a clause without a comma: `current 2 A for 3 h`.
-    for (const part of splitWord(piece, 'for')) {
+    // A clause word may follow another clause without a comma: `current 2 A for 3 h`.
+    for (const part of splitWords(piece, STEP_CLAUSES)) {
       const m = /^([A-Za-z][A-Za-z-]*)(\s*)(.*)$/s.exec(part.text)
       const word = m ? m[1] : part.text.split(/\s/)[0]
       if (!m || !(STEP_CLAUSES as readonly string[]).includes(m[1])) {
@@ -287,7 +284,7 @@ function parseClauses(s: Cursor): Clause[] {
       if (m[3].trim() === '') {
         throw new LineError(`\`${m[1]}\` needs a value`, kwTok.span.start - s.base, kwTok.span.end - s.base)
       }
-      const on = m[1] === 'current' ? /\s+on\s+(anode|cathode)$/.exec(m[3]) : null
+      const on = m[1] === 'current' ? /\s+on\s+(anode|cathode|separator)$/.exec(m[3]) : null
       const exprText = on ? m[3].slice(0, on.index) : m[3]
       const clause: Clause = { span: part.span, keyword: kwTok, expr: { text: exprText, span: { start: exprStart, end: exprStart + exprText.length } } }
       if (on) {
@@ -300,12 +297,12 @@ function parseClauses(s: Cursor): Clause[] {
   return clauses
 }
 
-/** Split a token at a standalone word outside parentheses, keeping the word with the part it starts. */
-function splitWord(t: Tok, word: string): Tok[] {
+/** Split a token before each standalone clause word outside parentheses. */
+function splitWords(t: Tok, words: readonly string[]): Tok[] {
   const out: Tok[] = []
   let depth = 0
   let from = 0
-  const re = new RegExp(`^${word}\\b`)
+  const re = new RegExp(`^(?:${words.join('|')})(?![\\w-])`)
   for (let i = 0; i < t.text.length; i++) {
     const c = t.text[i]
     if (c === '(' || c === '[') depth++
@@ -372,14 +369,34 @@ class Cursor {
     return t
   }
 
+  /**
+   * Text up to a standalone keyword (which stays unread), trimmed: a material or kind may have
+   * several words (`platinum mesh`). Without the keyword, the first word is taken and `kw` reports.
+   */
+  upTo(word: string, what: string): Tok {
+    const rest = this.s.slice(this.pos)
+    const m = new RegExp(`\\s+${word}(?=\\s|$)`).exec(rest)
+    if (!m || m.index === 0) {
+      const t = this.word(what)
+      this.ws()
+      return t
+    }
+    const t = this.tok(this.pos, this.pos + m.index)
+    this.pos += m.index
+    this.ws()
+    return t
+  }
+
   kw(word: string): void {
     const m = this.match(/^[A-Za-z-]+/)
     if (m !== word) {
+      // Offer the keyword only for a near miss (`betwen`), not for any word that happens to stand there.
+      const near = m && closest(m, [word])
       throw new LineError(
         `expected \`${word}\`${m ? `, found \`${m}\`` : ''}`,
         this.pos,
         this.pos + (m?.length ?? 1),
-        m ? { start: this.pos, end: this.pos + m.length, newText: word, title: `Change to \`${word}\`` } : undefined,
+        near ? { start: this.pos, end: this.pos + m.length, newText: word, title: `Change to \`${word}\`` } : undefined,
       )
     }
     this.pos += word.length

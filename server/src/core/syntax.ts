@@ -23,7 +23,7 @@ export interface Clause {
   span: Span
   keyword: Tok
   expr: Expr
-  /** `current 2 A/dm^2 on cathode`: the electrode whose area a current density refers to. */
+  /** `current 2 A/dm^2 on anode`: the part (anode, cathode, separator) whose area a current density refers to. */
   on?: Tok
 }
 

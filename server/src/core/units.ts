@@ -88,15 +88,19 @@ export function normalise(text: string): { text: string; map: number[] } {
   }
   for (let i = 0; i < text.length; i++) {
     const c = text[i]
+    const wt = c === 'w' && !/[\p{L}_]/u.test(text[i - 1] ?? ' ') ? /^wt\s*%/.exec(text.slice(i)) : null
     if (c === '°' && text[i + 1] === 'C') {
       push('degC', i)
       i++
     } else if (c === '°' && text[i + 1] === 'F') {
       push('degF', i)
       i++
-    } else if (c === 'w' && text.startsWith('wt%', i) && !/[A-Za-z0-9_]/.test(text[i - 1] ?? ' ')) {
-      push('wtpct', i)
-      i += 2
+    } else if (c === '℃') {
+      push('degC', i)
+    } else if (wt) {
+      // `wt%`, also written `10wt%` or `10 wt %`
+      push(/\s/.test(text[i - 1] ?? ' ') ? 'wtpct' : ' wtpct', i)
+      i += wt[0].length - 1
     } else if (c === '·' || c === '×' || c === '⋅') {
       push('*', i)
     } else if (c === '−') {
@@ -107,9 +111,34 @@ export function normalise(text: string): { text: string; map: number[] } {
       push('^2', i)
     } else if (c === '³') {
       push('^3', i)
+    } else if (c === '\u00a0' || c === '\u202f' || c === '\u2009' || c === '\t') {
+      push(' ', i) // no-break and thin spaces pasted between a number and its unit
     } else {
       push(c, i)
     }
+  }
+  // `1 h 30 min`: a duration written as hours then minutes (or minutes then seconds) is their sum.
+  const joined = out.join('')
+  const re = /(?<![\p{L}\p{N}_])(h|min)(\s+)(?=\d[\d.]*\s*(min|s)(?![\p{L}\p{N}_]))/gu
+  let m: RegExpExecArray | null
+  const inserts: number[] = []
+  while ((m = re.exec(joined))) inserts.push(m.index + m[1].length)
+  if (inserts.length) {
+    // `out` holds one UTF-16 code unit per entry, aligned with `map`: insert ' +' before each place.
+    const text2: string[] = []
+    const map2: number[] = []
+    let k = 0
+    for (let j = 0; j < out.length; j++) {
+      if (inserts[k] === j) {
+        text2.push(' ', '+')
+        map2.push(map[j], map[j])
+        k++
+      }
+      text2.push(out[j])
+      map2.push(map[j])
+    }
+    map2.push(text.length)
+    return { text: text2.join(''), map: map2 }
   }
   map.push(text.length)
   return { text: out.join(''), map }
@@ -184,12 +213,14 @@ function compile(text: string): CompileResult {
   // Locate a symbol in the normalised text, scanning forward so repeated names map to successive places.
   let searchFrom = 0
   const locate = (name: string): NodeInfo => {
-    const re = new RegExp(`(?<![A-Za-z0-9_])${name.replace(/[^A-Za-z0-9_]/g, '')}(?![A-Za-z0-9_])`, 'g')
+    const escaped = name.replace(/[.*+?^${}()|[\]\\]/g, '\\$&')
+    const re = new RegExp(`(?<![\\p{L}\\p{N}_$])${escaped}(?![\\p{L}\\p{N}_$])`, 'gu')
     re.lastIndex = searchFrom
     const m = re.exec(norm.text)
     if (!m) return whole
     searchFrom = m.index + name.length
-    return { start: back(m.index), end: back(m.index + name.length - 1) + 1 }
+    const start = back(m.index)
+    return { start, end: Math.min(text.length, Math.max(start + 1, back(m.index + name.length - 1) + 1)) }
   }
   const visit = (node: MathNode, level: number): void => {
     if (failure) return

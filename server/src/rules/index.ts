@@ -1,6 +1,8 @@
 // The rule registry: every diagnostic Cellrun reports comes from one of these modules.
+import { approximateAmount } from './approximate-amount'
 import { badExpression } from './bad-expression'
 import { badFormula } from './bad-formula'
+import { belowCharged } from './below-charged'
 import { beyondFaraday } from './beyond-faraday'
 import { duplicateName } from './duplicate-name'
 import { efficiencyOver100 } from './efficiency-over-100'
@@ -35,8 +37,10 @@ export const RULES: readonly Rule[] = [
   missingElectrode,
   stepIncomplete,
   overfilled,
+  approximateAmount,
   productReaction,
   beyondFaraday,
+  belowCharged,
   efficiencyOver100,
 ]
 

@@ -38,11 +38,15 @@ export const stepIncomplete: Rule = {
         })
       }
       if (s.densityWithoutArea) {
+        const on = s.densityWithoutArea.on
         out.push({
           code: 'step-incomplete',
           severity: 'error',
-          message: 'a current density needs an electrode area: give the anode one (`anode ... in ..., area 36 cm^2`)',
-          span: s.densityWithoutArea,
+          message:
+            on === 'cathode'
+              ? 'a current density is taken over the cathode area: give every cathode an area (`cathode ... in ..., area 36 cm^2`), or write `on anode` / `on separator`'
+              : `a current density \`on ${on}\` needs an area on every ${on} (\`, area 36 cm^2\`)`,
+          span: s.densityWithoutArea.span,
           fixes: [],
         })
       }

@@ -1,0 +1,149 @@
+// What a working chemist plausibly types, and the chemistry behind the less common cases: each case
+// came up in a review of v1. Expected values are worked by hand from outside constants:
+// F = 96485.33212 C/mol (CODATA 2018; e·N_A exact since SI 2019), atomic weights IUPAC 2021.
+import { describe, expect, it } from 'vitest'
+import { analyze, type Analysis } from '../server/src/core/analyze'
+import { evaluateExpression, inKindUnit, kindOf } from '../server/src/core/units'
+import { marked } from './support/markers'
+
+const F = 96485.33212 // C/mol, CODATA 2018
+const AH = 3600 // C per A·h
+
+const errors = (a: Analysis) => a.diagnostics.filter((d) => d.severity === 'error').map((d) => `${d.code}: ${d.message}`)
+const maxGrams = (a: Analysis) => a.computed.filter((c) => c.key === 'expect.max').map((c) => c.value!)
+const value = (text: string) => {
+  const r = evaluateExpression(text, new Map())
+  if (!r.ok) throw new Error(r.failure.message)
+  return r.value
+}
+
+function bath(lines: string[]): string {
+  return ['cell', '  compartment bath 1 L', '  anode platinum in bath, area 1 dm^2', '  cathode steel in bath, area 1 dm^2', ...lines, ''].join('\n')
+}
+
+describe('metal ion charges from less simple salts', () => {
+  it('hard chrome from chromic acid deposits Cr(VI) with 6 electrons', () => {
+    const a = analyze(bath(['charge bath: CrO3 250 g, water 900 mL', 'step 1: current 1 A for 1 h', 'expect Cr 0.1 g in bath']))
+    // Cr 51.9961 g/mol (IUPAC 2021): 1 A·h × 51.9961 / (6 × F) = 0.32334 g
+    expect(maxGrams(a)[0]).toBeCloseTo((AH * 51.9961) / (6 * F), 6)
+  })
+
+  it('gold from tetrachloroauric acid is Au(III); platinum from hexachloroplatinic acid is Pt(IV)', () => {
+    const au = analyze(bath(['charge bath: HAuCl4 10 g, water 900 mL', 'step 1: current 1 A for 1 h', 'expect Au 0.1 g in bath']))
+    // Au 196.966570 g/mol (IUPAC 2021): 3600 × 196.966570 / (3 × F) = 2.4497 g
+    expect(maxGrams(au)[0]).toBeCloseTo((AH * 196.96657) / (3 * F), 5)
+    const pt = analyze(bath(['charge bath: H2PtCl6 10 g, water 900 mL', 'step 1: current 1 A for 1 h', 'expect Pt 0.1 g in bath']))
+    // Pt 195.084 g/mol (IUPAC 2021), 4 electrons
+    expect(maxGrams(pt)[0]).toBeCloseTo((AH * 195.084) / (4 * F), 5)
+  })
+})
+
+describe('feed limits', () => {
+  it('chlorine is limited by the chloride charged', () => {
+    const a = analyze(bath(['charge bath: NaCl 5.85 g, water 900 mL', 'step 1: current 10 A for 1 h', 'expect Cl2 1 g in bath']))
+    // NaCl 58.443 g/mol (22.98976928 + 35.45): 5.85 g = 0.100097 mol Cl⁻ → 0.050048 mol Cl2 × 70.90 g/mol = 3.5484 g
+    const mNaCl = 22.98976928 + 35.45
+    expect(maxGrams(a)[0]).toBeCloseTo((5.85 / mNaCl / 2) * 70.9, 4)
+  })
+})
+
+describe('current density and areas', () => {
+  it('adds up the areas of several electrodes of the reference kind', () => {
+    const src = ['cell', '  compartment bath 1 L', '  anode copper in bath, area 1 dm^2', '  anode copper in bath, area 1 dm^2', '  cathode steel in bath, area 1 dm^2', 'step 1: current 2 A/dm^2 on anode for 1 h', ''].join('\n')
+    // 2 A/dm² × (1 + 1) dm² = 4 A
+    expect(analyze(src).model.steps[0].currentA).toBeCloseTo(4, 12)
+  })
+
+  it('does not fall back to the anode area when the cathode has none', () => {
+    const m = marked(['cell', '  compartment bath 1 L', '  anode copper in bath, area 1 dm^2', '  cathode steel in bath', 'step 1: current ⟦2 A/dm^2⟧ for 1 h', ''].join('\n'))
+    const a = analyze(m.text)
+    const d = a.diagnostics.filter((x) => x.code === 'step-incomplete')
+    expect(d.map((x) => x.span)).toEqual(m.ranges)
+    expect(a.model.totals.chargeC).toBe(0)
+  })
+
+  it('`on separator` takes the membrane area', () => {
+    const src = ['cell', '  compartment a 1 L', '  compartment c 1 L', '  separator cation-exchange between a and c, area 40 cm^2', '  anode platinum in a', '  cathode nickel in c', 'step 1: current 3 kA/m^2 on separator for 1 h', ''].join('\n')
+    // 3000 A/m² × 40e-4 m² = 12 A
+    expect(analyze(src).model.steps[0].currentA).toBeCloseTo(12, 12)
+  })
+})
+
+describe('hydrogen and oxygen take the full charge', () => {
+  it('a step efficiency lowers the hydroxide bound but not the hydrogen bound', () => {
+    const a = analyze(bath(['charge bath: NaCl 50 g, water 900 mL', 'step 1: current 1 A for 1 h, efficiency 50 %', 'expect H2 0.01 g in bath', 'expect NaOH 0.1 g in bath']))
+    const [h2, naoh] = maxGrams(a)
+    // H2: 3600 / (2F) × 2.016 g/mol = 0.037610 g at 100 %; NaOH: 3600 / F × 39.997 g/mol × 0.5 = 0.74617 g
+    expect(h2).toBeCloseTo((AH / (2 * F)) * 2.016, 6)
+    expect(naoh).toBeCloseTo((AH / F) * (22.98976928 + 15.999 + 1.008) * 0.5, 5)
+  })
+})
+
+describe('units as typed', () => {
+  it.each([
+    ['10wt%', 'mass-fraction', 10],
+    ['10 wt %', 'mass-fraction', 10],
+    ['10 wt%', 'mass-fraction', 10],
+    ['10 ℃', 'temperature', 283.15], // 0 °C = 273.15 K (definition)
+    ['10\u00a0°C', 'temperature', 283.15],
+    ['25\u202fmL', 'volume', 0.025],
+    ['1 h 30 min', 'time', 5400], // 3600 s + 1800 s
+    ['2 min 30 s', 'time', 150],
+  ] as const)('%s', (text, kind, expected) => {
+    const v = value(text)
+    expect(kindOf(v)).toBe(kind)
+    expect(inKindUnit(v, kind)).toBeCloseTo(expected, 9)
+  })
+})
+
+describe('statements as typed', () => {
+  it('takes a material of several words', () => {
+    const a = analyze(['cell', '  vessel borosilicate glass', '  compartment bath 1 L', '  anode platinum mesh in bath', '  cathode nickel in bath', ''].join('\n'))
+    expect(errors(a)).toEqual([])
+    expect(a.model.electrodes.map((e) => e.material.text)).toEqual(['platinum mesh', 'nickel'])
+    expect(a.model.vessel?.material.text).toBe('borosilicate glass')
+  })
+
+  it('reads `cation exchange` as a separator kind and offers the hyphenated word', () => {
+    const m = marked(['cell', '  compartment a 1 L', '  compartment c 1 L', '  separator ⟦cation exchange⟧ between a and c', ''].join('\n'))
+    const d = analyze(m.text).diagnostics.filter((x) => x.code === 'unknown-kind')
+    expect(d.map((x) => x.span)).toEqual(m.ranges)
+    expect(d[0].fixes[0].edits[0].newText).toBe('cation-exchange')
+  })
+
+  it('offers a keyword fix only for a near miss, and the fixed line parses', () => {
+    const far = analyze(['cell', '  compartment bath 1 L', '  anode platinum mesh bath', ''].join('\n'))
+    const farSyntax = far.diagnostics.filter((x) => x.code === 'syntax')
+    expect(farSyntax).toHaveLength(1)
+    expect(farSyntax[0].fixes).toEqual([])
+    const src = ['cell', '  compartment bath 1 L', '  anode platinum on bath', ''].join('\n')
+    const near = analyze(src).diagnostics.filter((x) => x.code === 'syntax')
+    const edit = near[0].fixes[0].edits[0]
+    const fixed = src.slice(0, edit.span.start) + edit.newText + src.slice(edit.span.end)
+    expect(fixed).toContain('anode platinum in bath')
+    expect(analyze(fixed).diagnostics.filter((x) => x.code === 'syntax')).toEqual([])
+  })
+
+  it('accepts state symbols on formulas', () => {
+    const a = analyze(bath(['charge bath: NaCl(aq) 10 g, water 900 mL', 'step 1: current 1 A for 1 h', 'expect H2(g) 0.4 L in bath']))
+    expect(errors(a)).toEqual([])
+    expect(a.computed.filter((c) => c.key === 'charge.item')[0].value).toBeCloseTo(10 / (22.98976928 + 35.45), 9)
+  })
+
+  it('reads a clause word without a comma before it', () => {
+    const a = analyze(bath(['step 1: current 2 A for 3 h efficiency 90 %']))
+    expect(errors(a)).toEqual([])
+    expect(a.model.steps[0].efficiency).toBeCloseTo(0.9, 12)
+  })
+
+  it('lets a gas with no known reaction be stated by volume', () => {
+    const a = analyze(bath(['step 1: current 1 A for 1 h', 'expect CO2 5 L in bath']))
+    expect(a.diagnostics.filter((d) => d.code === 'wrong-unit')).toEqual([])
+  })
+
+  it('keeps an unknown name with a non-ASCII letter inside its line', () => {
+    const m = marked(bath(['let ax = 0.5', 'step 1: current 1 A for 1 h, efficiency ⟦αx⟧', 'note next line']))
+    const d = analyze(m.text).diagnostics.filter((x) => x.code === 'unknown-name')
+    expect(d.map((x) => x.span)).toEqual(m.ranges)
+  })
+})
