@@ -96,6 +96,14 @@ describe('units as typed', () => {
   })
 })
 
+describe('messages for units typed the wrong way', () => {
+  it('says how to write a negative power of a unit', () => {
+    const r = evaluateExpression('40 mA cm-2', new Map())
+    expect(r.ok).toBe(false)
+    if (!r.ok) expect(r.failure.message).toContain('cm^-2')
+  })
+})
+
 describe('statements as typed', () => {
   it('takes a material of several words', () => {
     const a = analyze(['cell', '  vessel borosilicate glass', '  compartment bath 1 L', '  anode platinum mesh in bath', '  cathode nickel in bath', ''].join('\n'))

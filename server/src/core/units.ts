@@ -383,6 +383,9 @@ export function evaluateExpression(text: string, scope: ReadonlyMap<string, Valu
 
 function friendlyMathError(msg: string): string {
   if (/Units do not match|do not match/i.test(msg)) return 'cannot add or subtract quantities of different kinds'
+  if (/function (add|subtract)(Scalar)?\b/.test(msg)) {
+    return 'cannot add or subtract a plain number and a quantity with a unit (for a power of a unit write `cm^-2`, not `cm-2`)'
+  }
   if (/Unit.*not.*allowed|exponent/i.test(msg)) return `cannot compute this: ${msg}`
   return `cannot compute this: ${msg}`
 }
