@@ -38,12 +38,36 @@ describe('metal ion charges from less simple salts', () => {
   })
 })
 
+function divided(lines: string[]): string {
+  return [
+    'cell',
+    '  compartment anolyte 1 L',
+    '  compartment catholyte 1 L',
+    '  separator cation-exchange between anolyte and catholyte',
+    '  anode mmo-titanium in anolyte',
+    '  cathode nickel in catholyte',
+    ...lines,
+    '',
+  ].join('\n')
+}
+
 describe('feed limits', () => {
-  it('chlorine is limited by the chloride charged', () => {
-    const a = analyze(bath(['charge bath: NaCl 5.85 g, water 900 mL', 'step 1: current 10 A for 1 h', 'expect Cl2 1 g in bath']))
-    // NaCl 58.443 g/mol (22.98976928 + 35.45): 5.85 g = 0.100097 mol Cl⁻ → 0.050048 mol Cl2 × 70.90 g/mol = 3.5484 g
+  it('chlorine is limited by the chloride charged (divided cell)', () => {
+    const a = analyze(divided(['charge anolyte: NaCl 58.5 g, water 900 mL', 'charge catholyte: water 900 mL', 'step 1: current 40 A for 1 h', 'expect Cl2 1 g in anolyte']))
+    // NaCl 58.43977 g/mol (22.98976928 + 35.45): 58.5 g = 1.001031 mol Cl⁻ → 0.500515 mol Cl2 × 70.90 g/mol = 35.487 g
+    // (40 A·h = 1.4924 mol e⁻ would make 0.746 mol)
     const mNaCl = 22.98976928 + 35.45
-    expect(maxGrams(a)[0]).toBeCloseTo((5.85 / mNaCl / 2) * 70.9, 4)
+    expect(maxGrams(a)[0]).toBeCloseTo((58.5 / mNaCl / 2) * 70.9, 3)
+  })
+
+  it('an undivided chloride cell makes hypochlorite, one per chloride, and no free chlorine', () => {
+    const a = analyze(bath(['charge bath: NaCl 58.5 g, water 900 mL', 'step 1: current 60 A for 1 h', 'expect NaClO 1 g in bath', 'expect Cl2 1 g in bath']))
+    // Cl₂ + 2 OH⁻ → ClO⁻ + Cl⁻ + H₂O (standard textbook stoichiometry): net NaCl + H₂O → NaClO + H₂ (2 e⁻).
+    // 60 A·h = 2.2386 mol e⁻ would make 1.119 mol, but the chloride allows 1.001031 mol NaClO
+    // × 74.43877 g/mol (22.98976928 + 35.45 + 15.999) = 74.515 g
+    const mNaClO = 22.98976928 + 35.45 + 15.999
+    expect(maxGrams(a)[0]).toBeCloseTo((58.5 / (22.98976928 + 35.45)) * mNaClO, 3)
+    expect(a.diagnostics.find((d) => d.code === 'product-reaction')?.message).toContain('nothing in this cell forms Cl₂')
   })
 })
 
@@ -71,7 +95,7 @@ describe('current density and areas', () => {
 
 describe('hydrogen and oxygen take the full charge', () => {
   it('a step efficiency lowers the hydroxide bound but not the hydrogen bound', () => {
-    const a = analyze(bath(['charge bath: NaCl 50 g, water 900 mL', 'step 1: current 1 A for 1 h, efficiency 50 %', 'expect H2 0.01 g in bath', 'expect NaOH 0.1 g in bath']))
+    const a = analyze(divided(['charge anolyte: NaCl 50 g, water 900 mL', 'charge catholyte: water 900 mL', 'step 1: current 1 A for 1 h, efficiency 50 %', 'expect H2 0.01 g in catholyte', 'expect NaOH 0.1 g in catholyte']))
     const [h2, naoh] = maxGrams(a)
     // H2: 3600 / (2F) × 2.016 g/mol = 0.037610 g at 100 %; NaOH: 3600 / F × 39.997 g/mol × 0.5 = 0.74617 g
     expect(h2).toBeCloseTo((AH / (2 * F)) * 2.016, 6)

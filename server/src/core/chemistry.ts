@@ -30,7 +30,7 @@ export interface Reaction {
 export type ReactionLookup = { ok: true; reaction: Reaction } | { ok: false; why: string }
 
 /** Common anions: formula, element counts and charge. */
-const ANIONS: { name: string; counts: Record<string, number>; charge: number }[] = [
+export const ANIONS: { name: string; counts: Record<string, number>; charge: number }[] = [
   { name: 'SO4', counts: { S: 1, O: 4 }, charge: -2 },
   { name: 'HSO4', counts: { H: 1, S: 1, O: 4 }, charge: -1 },
   { name: 'NO3', counts: { N: 1, O: 3 }, charge: -1 },
@@ -60,7 +60,7 @@ const ANIONS: { name: string; counts: Record<string, number>; charge: number }[]
 export const KNOWN_GASES = new Set(['H2', 'O2', 'Cl2', 'CO2', 'N2', 'NH3', 'SO2', 'NO2', 'NO', 'N2O', 'CH4', 'CO', 'O3', 'ClO2'])
 
 /** Metals whose ions are reduced to metal from water at a practical efficiency; usual ion charge. */
-const DEPOSITABLE: Record<string, number> = {
+export const DEPOSITABLE: Record<string, number> = {
   Cu: 2,
   Ni: 2,
   Zn: 2,
@@ -82,7 +82,7 @@ const DEPOSITABLE: Record<string, number> = {
 }
 
 /** Metals that form hydroxides at a cathode but cannot be deposited from water. */
-const ALKALI_LIKE = new Set(['Li', 'Na', 'K', 'Rb', 'Cs', 'Mg', 'Ca', 'Sr', 'Ba', 'Al'])
+export const ALKALI_LIKE = new Set(['Li', 'Na', 'K', 'Rb', 'Cs', 'Mg', 'Ca', 'Sr', 'Ba', 'Al'])
 
 export interface SaltIons {
   cation: string

@@ -2,7 +2,8 @@
 // (charge passed, amounts, concentrations, Faraday limits). Plain data; the rules in ../rules turn
 // the facts recorded here into diagnostics, and each Computed value is a hint with its working.
 import { FARADAY, GAS_CONSTANT, DEFAULT_PRESSURE_PA, DEFAULT_TEMPERATURE_K, ZERO_CELSIUS, waterDensity } from './constants'
-import { KNOWN_GASES, productReaction, materialIsMetal, saltIons, type Reaction } from './chemistry'
+import { KNOWN_GASES, productReaction } from './chemistry'
+import { runEngine, sameSubstance, type EngineResult, type Product } from './engine'
 import { parseFormula, prettyFormula, type Formula } from './formula'
 import type { Span } from './positions'
 import type { ChargeItem, LineNode, SyntaxTree, Tok } from './syntax'
@@ -143,16 +144,16 @@ export interface YieldFact {
   initialMol: number
   /** Stated amount less what was charged: formed by the run, mol. */
   formedMol?: number
-  reaction?: Reaction
+  /** The reaction that forms the product, as the engine chose it (or as assumed without a cell). */
+  reaction?: { equation: string; reason: string; compartment?: string; gas: boolean }
   noReaction?: string
   /** Where the product forms is not where the line says. */
-  wrongCompartment?: { expected: 'anode' | 'cathode'; compartment: string }
-  /** Theoretical maximum in mol at 100 % efficiency, and with the steps' efficiencies. */
+  wrongCompartment?: { formedIn: string[] }
+  /** Theoretical maximum formed, mol: at 100 % efficiency, and with the steps' efficiencies. */
   maxMol100?: number
   maxMolEff?: number
-  /** Feed limit in mol, when one applies. */
-  limitMol?: number
-  limitWhy?: string
+  /** A feed ran out during the run, which caps the maximum. */
+  feedLimited?: boolean
   /** For a gas stated by volume: litres per mole at the run's conditions (ideal gas). */
   litresPerMol?: number
 }
@@ -185,6 +186,8 @@ export interface Model {
   yields: YieldFact[]
   handling: { line: number; type: Tok; text: Tok }[]
   computed: Computed[]
+  /** The chemistry engine's reactions and products (see engine.ts). */
+  engine?: EngineResult
   totals: { chargeC: number; electronMol: number; effectiveElectronMol: number; seconds: number; energyJ?: number }
 }
 
@@ -271,6 +274,7 @@ export function buildModel(tree: SyntaxTree): Model {
   }
   ev.compartmentSummaries()
   ev.stepTotals()
+  ev.chemistry()
   for (const n of tree.lines) {
     if (n.kind === 'expect' || n.kind === 'observe') ev.yieldLine(n)
   }
@@ -727,96 +731,153 @@ class Evaluator {
     }
   }
 
+  /** Run the chemistry engine; show each electrode's reaction and each step's products. */
+  chemistry(): void {
+    const m = this.m
+    const engine = runEngine({
+      compartments: [...m.compartments.values()].map((c) => ({
+        name: c.name,
+        ...(c.volumeL !== undefined ? { volumeL: c.volumeL } : {}),
+        solutes: [...c.solutes.values()].map((x) => ({ formula: x.formula, mol: x.mol })),
+      })),
+      electrodes: m.electrodes.map((e) => ({ role: e.role, material: e.material.text, compartment: e.compartment })),
+      separators: m.separators.map((x) => ({ type: x.type.text, between: x.between })),
+      steps: m.steps.map((x) => ({ line: x.line, ...(x.chargeC !== undefined ? { chargeC: x.chargeC } : {}), efficiency: x.efficiency })),
+    })
+    m.engine = engine
+    for (const r of [engine.anode, engine.cathode]) {
+      if (!r) continue
+      const e = m.electrodes.find((x) => x.role === r.role && x.compartment === r.compartment)!
+      const node = m.tree.lines[e.line]
+      m.computed.push({
+        line: e.line,
+        span: node.span,
+        anchor: node.span.end,
+        key: `${r.role}.reaction`,
+        label: r.equation,
+        title: `${r.role === 'anode' ? 'Anode' : 'Cathode'} reaction`,
+        working: [r.equation, `why: ${r.reason}`, ...(r.role === 'cathode' ? [`separator: ${couplingText(engine.coupling)}`] : [])],
+      })
+    }
+    const Vm = this.litresPerMol()
+    for (const sp of engine.steps) {
+      if (sp.products.length === 0) continue
+      // Solid and dissolved products first (usually the point of the run), then the gases.
+      const shown = [...sp.products].sort((x, y) => Number(x.gas) - Number(y.gas))
+      const label = '→ ' + shown.map((p) => `${amountText(p, p.mol, Vm)} ${prettyFormula(p.formula)}`).join(' · ') + (sp.notes.length ? ' · ⚠ ' + sp.notes.length : '')
+      const node = m.tree.lines[sp.line]
+      m.computed.push({
+        line: sp.line,
+        span: node.span,
+        anchor: node.span.end,
+        key: 'step.products',
+        label,
+        title: 'Products of this step',
+        working: [
+          ...sp.products.map((p) => `${prettyFormula(p.formula)} in ${p.compartment}: ${fmt(p.mol, 4)} mol = ${amountText(p, p.mol, Vm, 4)}  (${p.equation})`),
+          ...sp.notes.map((x) => `⚠ ${x}`),
+        ],
+      })
+    }
+  }
+
+  private litresPerMol(): number {
+    return ((GAS_CONSTANT * this.m.temperatureK) / this.m.pressurePa) * 1000
+  }
+
   yieldLine(n: Extract<LineNode, { kind: 'expect' | 'observe' }>): void {
     const ff = this.formula(n.line, n.formula)
     const f = ff.formula
     const compName = n.compartment?.text
     if (n.compartment) this.ref(n.line, n.compartment)
     const comp = compName ? this.m.compartments.get(compName) : undefined
-    const saltsHere = this.saltsIn(compName)
-    const lookup = productReaction(f, saltsHere)
-    const gas = lookup.ok ? lookup.reaction.gas : KNOWN_GASES.has(ff.tok.text)
+    const engine = this.m.engine
+    const cellKnown = !!engine?.anode && !!engine.cathode
+    const formed = cellKnown ? engine!.totals.filter((p) => sameSubstance(p.formula, f)) : []
+    // Without a described cell, fall back to the usual reaction for the product.
+    const fallback = cellKnown ? undefined : productReaction(f, this.saltsIn(compName))
+    const gas = formed.length ? formed[0].gas : fallback?.ok ? fallback.reaction.gas : KNOWN_GASES.has(ff.tok.text)
     const kinds: Kind[] = gas ? ['mass', 'amount', 'volume'] : ['mass', 'amount']
     const q = this.quantity(n, n.quantity, `the ${n.kind === 'expect' ? 'planned' : 'measured'} amount of ${n.formula.text}`, kinds, 'non-negative')
     const y: YieldFact = { line: n.line, kind: n.kind, formula: ff, quantity: q, initialMol: 0, ...(n.compartment ? { compartment: n.compartment } : {}) }
     this.m.yields.push(y)
-    if (!lookup.ok) {
-      if (f.ok) y.noReaction = lookup.why
-      return
-    }
-    const r = lookup.reaction
-    y.reaction = r
     const M = f.molarMass
-    const Vm = (GAS_CONSTANT * this.m.temperatureK) / this.m.pressurePa // m³/mol
-    if (gas && q.kind === 'volume') y.litresPerMol = Vm * 1000
-    if (q.number !== undefined && q.number >= 0) {
-      y.mol = q.kind === 'mass' ? q.number / M : q.kind === 'amount' ? q.number : q.number / 1000 / Vm
-    }
-    // Where does it form?
-    const electrodes = this.m.electrodes.filter((e) => e.role === r.electrode)
-    if (comp && electrodes.length > 0 && !electrodes.some((e) => e.compartment === comp.name)) {
-      y.wrongCompartment = { expected: r.electrode, compartment: comp.name }
+    const Vm = this.litresPerMol()
+    if (gas && q.kind === 'volume') y.litresPerMol = Vm
+    if (q.number !== undefined && q.number >= 0) y.mol = q.kind === 'mass' ? q.number / M : q.kind === 'amount' ? q.number : q.number / Vm
+    const pf = prettyFormula(ff.tok.text)
+    let here: Product[] = formed
+    if (cellKnown) {
+      if (!f.ok) return
+      if (formed.length === 0) {
+        y.noReaction = `nothing in this cell forms ${pf}: the anode runs ${engine!.anode!.equation} (${engine!.anode!.reason}); the cathode runs ${engine!.cathode!.equation} (${engine!.cathode!.reason})`
+        return
+      }
+      if (comp) {
+        here = formed.filter((p) => p.compartment === comp.name)
+        if (here.length === 0) {
+          y.wrongCompartment = { formedIn: [...new Set(formed.map((p) => p.compartment))] }
+          here = formed
+        }
+      }
+      y.reaction = { equation: here[0].equation, reason: here[0].reason, compartment: here[0].compartment, gas: here[0].gas }
+      y.maxMolEff = here.reduce((t, p) => t + p.mol, 0)
+      y.maxMol100 = here.reduce((t, p) => t + p.mol100, 0)
+      y.feedLimited = engine!.steps.some((s) => s.notes.length > 0)
+    } else {
+      if (!fallback || !fallback.ok) {
+        if (f.ok && fallback) y.noReaction = fallback.why
+        return
+      }
+      const r = fallback.reaction
+      y.reaction = { equation: r.equation, reason: `${r.reason}; no anode and cathode are described, so the usual reaction is assumed`, gas: r.gas }
+      if (this.m.totals.electronMol > 0) {
+        y.maxMol100 = this.m.totals.electronMol / r.electrons
+        y.maxMolEff = (r.fromWater ? this.m.totals.electronMol : this.m.totals.effectiveElectronMol) / r.electrons
+      }
     }
     // The stated amount is what is there after the run: what was charged of the same substance
     // into that compartment is not formed by the run. (Gases leave the cell, so none is counted.)
-    const where = comp ?? (electrodes.length === 1 ? this.m.compartments.get(electrodes[0].compartment) : undefined)
+    const where = comp ?? (y.reaction.compartment ? this.m.compartments.get(y.reaction.compartment) : undefined)
     if (!gas && where) y.initialMol = chargedMol(where, f)
     if (y.mol !== undefined) y.formedMol = y.mol - y.initialMol
-    if (this.m.steps.length === 0 || this.m.totals.electronMol === 0) return
-    y.maxMol100 = this.m.totals.electronMol / r.electrons
-    const effElectrons = r.fromWater ? this.m.totals.electronMol : this.m.totals.effectiveElectronMol
-    y.maxMolEff = effElectrons / r.electrons
-    const limit = this.feedLimit(r, compName)
-    if (limit) {
-      y.limitMol = limit.mol
-      y.limitWhy = limit.why
-    }
-    const maxFormed = Math.min(y.maxMolEff, y.limitMol ?? Infinity)
-    const shown = (mol: number) =>
-      q.kind === 'volume' ? `${fmt(mol * Vm * 1000)} L` : q.kind === 'amount' ? `${fmt(mol)} mol` : `${fmt(mol * M)} g`
-    const pf = prettyFormula(n.formula.text)
-    const effNote = effElectrons < this.m.totals.electronMol ? ' at the stated efficiencies' : ''
+    if (y.maxMolEff === undefined || y.maxMol100 === undefined || this.m.totals.electronMol === 0) return
+    const shown = (mol: number) => (q.kind === 'volume' ? `${fmt(mol * Vm)} L` : q.kind === 'amount' ? `${fmt(mol)} mol` : `${fmt(mol * M)} g`)
     const working = [
-      `${r.electrode}: ${r.equation}  (${r.electrons} e⁻ per ${pf}; ${r.reason})`,
-      `n(e⁻) = ${fmt(this.m.totals.electronMol, 4)} mol over all steps${effNote ? `, ${fmt(effElectrons, 4)} mol${effNote}` : ''}`,
-      ...(r.fromWater && this.m.totals.effectiveElectronMol < this.m.totals.electronMol
-        ? [`${pf} from water takes the current the other reactions leave: the bound is the full charge, the steps' efficiencies are not applied`]
-        : []),
-      `n(${pf}) formed ≤ n(e⁻)/${r.electrons} = ${fmt(y.maxMolEff, 4)} mol = ${fmt(y.maxMolEff * M, 4)} g`,
+      `${y.reaction.equation}  (${y.reaction.reason})`,
+      `n(e⁻) = ${fmt(this.m.totals.electronMol, 4)} mol over all steps`,
+      `${pf} formed: ${fmt(y.maxMolEff, 4)} mol = ${fmt(y.maxMolEff * M, 4)} g at the steps' efficiencies; ${fmt(y.maxMol100, 4)} mol at 100 %`,
     ]
     if (gas) {
-      working.push(
-        `gas volume at ${fmt(this.m.temperatureK - ZERO_CELSIUS)} °C and ${fmt(this.m.pressurePa / 1000, 5)} kPa: V = nRT/p = ${fmt(y.maxMolEff * Vm * 1000, 4)} L (ideal gas)`,
-      )
+      working.push(`gas volume at ${fmt(this.m.temperatureK - ZERO_CELSIUS)} °C and ${fmt(this.m.pressurePa / 1000, 5)} kPa: V = nRT/p = ${fmt(y.maxMolEff * Vm, 4)} L (ideal gas)`)
     }
-    if (y.limitMol !== undefined) working.push(`feed limit: ${y.limitWhy}: ${fmt(y.limitMol, 4)} mol = ${fmt(y.limitMol * M, 4)} g`)
+    if (y.feedLimited) working.push(...engine!.steps.flatMap((s) => s.notes.map((x) => `⚠ step on line ${s.line + 1}: ${x}`)))
     if (y.initialMol > 0) {
       working.push(`charged before the run into ${where!.name}: ${fmt(y.initialMol, 4)} mol = ${fmt(y.initialMol * M, 4)} g; the stated amount includes it`)
     }
-    const formed = y.formedMol
+    const formedMol = y.formedMol
     if (n.kind === 'expect') {
-      const feedLimited = y.limitMol !== undefined && y.limitMol < y.maxMolEff
       const label =
-        `max ${shown(y.initialMol + maxFormed)}` +
+        `max ${shown(y.initialMol + y.maxMolEff)}` +
         (y.initialMol > 0 ? ` incl. ${shown(y.initialMol)} charged` : '') +
-        (feedLimited ? ' (feed-limited)' : '') +
-        (formed !== undefined && maxFormed > 0 ? ` · plan ${fmt((100 * formed) / maxFormed)} % of max` : '')
+        (y.feedLimited ? ' (feed-limited)' : '') +
+        (formedMol !== undefined && y.maxMolEff > 0 ? ` · plan ${fmt((100 * formedMol) / y.maxMolEff)} % of max` : '')
       this.m.computed.push({
         line: n.line,
         span: n.span,
         anchor: n.span.end,
         key: 'expect.max',
         label,
-        value: (y.initialMol + maxFormed) * M,
+        value: (y.initialMol + y.maxMolEff) * M,
         unit: 'g',
         title: `Theoretical ${pf} (Faraday's law)`,
         working,
       })
-    } else if (formed !== undefined && y.maxMol100 > 0) {
-      const ce = formed / y.maxMol100
+    } else if (formedMol !== undefined && y.maxMol100 > 0) {
+      const ce = formedMol / y.maxMol100
       working.push(
-        `current efficiency = formed ÷ n(e⁻)/${r.electrons} at 100 % = ` +
-          (y.initialMol > 0 ? `(${fmt(y.mol!, 4)} − ${fmt(y.initialMol, 4)}) mol` : `${fmt(formed, 4)} mol`) +
+        `current efficiency = formed ÷ formed at 100 % = ` +
+          (y.initialMol > 0 ? `(${fmt(y.mol!, 4)} − ${fmt(y.initialMol, 4)}) mol` : `${fmt(formedMol, 4)} mol`) +
           ` ÷ ${fmt(y.maxMol100, 4)} mol = ${fmt(ce * 100, 3)} %`,
       )
       this.m.computed.push({
@@ -844,62 +905,26 @@ class Evaluator {
     if (out.length === 0 && comp) return this.saltsIn(undefined)
     return out
   }
+}
 
-  /** The most of a product the charged feed allows, where v1 can tell. */
-  private feedLimit(r: Reaction, compName: string | undefined): { mol: number; why: string } | undefined {
-    if (r.electrode === 'anode' && r.gas && r.equation.startsWith('2 Cl⁻')) {
-      // Chlorine: two chloride ions per Cl2, from the chlorides charged where the anodes are.
-      const where = compName ? [compName] : [...new Set(this.m.electrodes.filter((e) => e.role === 'anode').map((e) => e.compartment))]
-      let cl = 0
-      for (const name of where) {
-        for (const sol of this.m.compartments.get(name)?.solutes.values() ?? []) {
-          const ions = saltIons(sol.formula)
-          if (ions && ions.anion === 'Cl') cl += sol.mol * ions.anionCount
-        }
-      }
-      return cl > 0 ? { mol: cl / 2, why: `Cl⁻ charged in ${where.join(', ')}` } : undefined
-    }
-    if (!r.element) return undefined
-    const el = r.element
-    const cathodes = this.m.electrodes.filter((e) => e.role === 'cathode')
-    const anodes = this.m.electrodes.filter((e) => e.role === 'anode')
-    const cathodeComp = compName ?? cathodes[0]?.compartment
-    if (!cathodeComp) return undefined
-    // Metal deposition: limited by the metal ion in the compartment, unless a soluble anode of that metal feeds it.
-    const isHydroxide = r.equation.includes('OH⁻ →')
-    if (!isHydroxide) {
-      if (anodes.some((a) => materialIsMetal(a.material.text, el))) return undefined
-      const mol = this.elementMolIn(cathodeComp, el, false)
-      return mol > 0 ? { mol, why: `${el} in the ${cathodeComp} charge` } : undefined
-    }
-    // Hydroxide: the cation must reach the cathode. Through a cation-exchange membrane it comes from
-    // the anode side; in a single compartment it comes from the salts there (not counting hydroxide).
-    const sep = this.m.separators.find((s) => s.between.includes(cathodeComp))
-    if (sep && sep.type.text === 'cation-exchange') {
-      const other = sep.between[0] === cathodeComp ? sep.between[1] : sep.between[0]
-      const mol = this.elementMolIn(other, el, true)
-      return mol > 0 ? { mol, why: `${el}⁺ available to cross from ${other}` } : undefined
-    }
-    if (!sep && this.m.compartments.size <= 1) {
-      const mol = this.elementMolIn(cathodeComp, el, false)
-      return mol > 0 ? { mol, why: `${el} in salts other than the hydroxide in ${cathodeComp}` } : undefined
-    }
-    return undefined
+function couplingText(c: EngineResult['coupling']): string {
+  switch (c) {
+    case 'same':
+      return 'anode and cathode share one solution: acid and base neutralise, chlorine meets hydroxide'
+    case 'cation':
+      return 'cations cross from the anode side to the cathode side'
+    case 'anion':
+      return 'anions cross from the cathode side to the anode side'
+    default:
+      return 'not known'
   }
+}
 
-  /** Moles of an element as cation in the salts charged into a compartment. */
-  private elementMolIn(comp: string, el: string, includeHydroxide: boolean): number {
-    const c = this.m.compartments.get(comp)
-    if (!c) return 0
-    let mol = 0
-    for (const s of c.solutes.values()) {
-      const ions = saltIons(s.formula)
-      if (!ions || ions.cation !== el) continue
-      if (!includeHydroxide && ions.anion === 'OH') continue
-      mol += s.mol * ions.cationCount
-    }
-    return mol
-  }
+/** A product amount as a chemist reads it: gases in litres at the run's conditions, the rest in grams. */
+function amountText(p: Product, mol: number, litresPerMol: number, sig = 3): string {
+  if (p.gas) return `${fmt(mol * litresPerMol, sig)} L`
+  const M = parseFormula(p.formula).molarMass
+  return Number.isFinite(M) ? `${fmt(mol * M, sig)} g` : `${fmt(mol, sig)} mol`
 }
 
 interface ItemResult {

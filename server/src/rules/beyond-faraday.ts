@@ -12,8 +12,7 @@ export const beyondFaraday: Rule = {
   check({ model }) {
     return model.yields.flatMap((y) => {
       if (y.kind !== 'expect' || y.formedMol === undefined || y.maxMolEff === undefined || !y.reaction) return []
-      const feedLimited = y.limitMol !== undefined && y.limitMol < y.maxMolEff
-      const max = feedLimited ? y.limitMol! : y.maxMolEff
+      const max = y.maxMolEff
       if (y.formedMol <= max * (1 + 1e-9)) return []
       const M = y.formula.formula.molarMass
       const pf = prettyFormula(y.formula.tok.text)
@@ -26,9 +25,9 @@ export const beyondFaraday: Rule = {
       // Round the replacement down, so the planned amount it writes stays within the maximum.
       const replacement = shownWith(fmtDown)
       const charged = y.initialMol > 0 ? `, with the ${fmt(y.initialMol * M)} g charged before the run` : ''
-      const why = feedLimited
-        ? `the feed allows at most ${shown}${charged} (${y.limitWhy})`
-        : `the charge passed allows at most ${shown}${charged} (${fmt(max)} mol formed at ${y.reaction.electrons} e⁻ each)`
+      const why = y.feedLimited
+        ? `with the feed running out, the run forms at most ${shown}${charged} (${fmt(max)} mol formed)`
+        : `the charge passed allows at most ${shown}${charged} (${fmt(max)} mol formed by ${y.reaction.equation})`
       return [
         {
           code: 'beyond-faraday',

@@ -20,13 +20,13 @@ export const productReaction: Rule = {
         })
       }
       if (y.wrongCompartment && y.compartment) {
-        const holders = model.electrodes.filter((e) => e.role === y.wrongCompartment!.expected).map((e) => e.compartment)
+        const where = y.wrongCompartment.formedIn
         out.push({
           code: 'product-reaction',
           severity: 'warning',
-          message: `${y.formula.tok.text} forms at the ${y.wrongCompartment.expected}, which is in ${holders.join(', ')}, not in ${y.compartment.text}`,
+          message: `${y.formula.tok.text} forms in ${where.join(' and ')}, not in ${y.compartment.text}`,
           span: y.compartment.span,
-          fixes: holders.length === 1 ? [{ title: `Change to \`${holders[0]}\``, edits: [{ span: y.compartment.span, newText: holders[0] }] }] : [],
+          fixes: where.length === 1 ? [{ title: `Change to \`${where[0]}\``, edits: [{ span: y.compartment.span, newText: where[0] }] }] : [],
         })
       }
     }
