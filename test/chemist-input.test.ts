@@ -179,3 +179,21 @@ describe('statements as typed', () => {
     expect(d.map((x) => x.span)).toEqual(m.ranges)
   })
 })
+
+describe('stated reactions', () => {
+  it('a stated, balanced half-reaction replaces the chosen one and sets what forms', () => {
+    const a = analyze(
+      divided([
+        'reaction anode: 2 H2O -> O2 + 4 H+ + 4 e-',
+        'reaction cathode: Ni^2+ + 2 e- -> Ni',
+        'charge anolyte: Na2SO4 50 g, water 900 mL',
+        'charge catholyte: NiSO4 50 g, water 900 mL',
+        'step 1: current 1 A for 1 h',
+        'expect Ni 1 g in catholyte',
+      ]),
+    )
+    expect(a.model.engine?.cathode?.kind).toBe('stated')
+    // Ni 58.6934 g/mol (IUPAC 2021): 3600 / (2 × F) × 58.6934 = 1.09497 g
+    expect(maxGrams(a)[0]).toBeCloseTo((AH / (2 * F)) * 58.6934, 5)
+  })
+})

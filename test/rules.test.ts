@@ -488,6 +488,31 @@ describe('below-charged', () => {
   })
 })
 
+// ---- bad-reaction and unbalanced-reaction -------------------------------------------------------
+describe('bad-reaction', () => {
+  it('electrons on the wrong side for the electrode, and no electrons at all, are errors', () => {
+    const src = BASE.replace('handling vent: hydrogen to the hood', 'reaction cathode: ⟦Cu^2+ -> Cu + 2 e-⟧\nreaction anode: ⟦H2O -> H2O⟧\nhandling vent: hydrogen to the hood')
+    at(src, 'bad-reaction', 'error')
+  })
+
+  it('is silent on a readable reaction with electrons where they belong', () => {
+    silent(BASE.replace('handling vent: hydrogen to the hood', 'reaction anode: 2 H2O -> O2 + 4 H+ + 4 e-\nhandling vent: hydrogen to the hood'), 'bad-reaction')
+  })
+})
+
+describe('unbalanced-reaction', () => {
+  it('an unbalanced half-reaction is an error, with a fix that writes the balanced coefficients', () => {
+    const line = (eq: string) => BASE.replace('handling vent: hydrogen to the hood', `reaction anode: ${eq}\nhandling vent: hydrogen to the hood`)
+    const { text, ds } = at(line('⟦OH- -> O2 + H2O + e-⟧'), 'unbalanced-reaction', 'error')
+    // 4 OH⁻ → O₂ + 2 H₂O + 4 e⁻ (standard textbook stoichiometry)
+    fixClears(text, ds[0], line('4 OH- -> O2 + 2 H2O + 4 e-'))
+  })
+
+  it('is silent on a balanced reaction', () => {
+    silent(BASE.replace('handling vent: hydrogen to the hood', 'reaction anode: 4 OH- -> O2 + 2 H2O + 4 e-\nhandling vent: hydrogen to the hood'), 'unbalanced-reaction')
+  })
+})
+
 // ---- beyond-faraday ----------------------------------------------------------------------------
 describe('beyond-faraday', () => {
   const plating = (metal: string, salt: string, plan: string) =>

@@ -72,7 +72,7 @@ export function hoverAt(a: Analysis, offset: number): Hover | undefined {
 export interface OutlineItem {
   name: string
   detail: string
-  kind: 'run' | 'cell' | 'compartment' | 'separator' | 'electrode' | 'vessel' | 'charge' | 'step' | 'expect' | 'observe' | 'value' | 'handling' | 'conditions'
+  kind: 'run' | 'cell' | 'compartment' | 'separator' | 'electrode' | 'vessel' | 'charge' | 'step' | 'expect' | 'observe' | 'value' | 'handling' | 'conditions' | 'reaction'
   span: Span
   selection: Span
   children: OutlineItem[]
@@ -135,6 +135,9 @@ export function outline(a: Analysis): OutlineItem[] {
         break
       case 'handling':
         items.push(item(n, 'handling', `handling ${n.type.text}`, n.text.text, n.type.span))
+        break
+      case 'reaction':
+        items.push(item(n, 'reaction', `reaction ${n.role.text}`, n.equation.text, n.role.span))
         break
     }
   }

@@ -19,7 +19,8 @@
 //   hypochlorite.
 // - Protons made in a carbonate feed first turn carbonate into bicarbonate, then release CO2.
 import { FARADAY } from './constants'
-import { ANIONS, DEPOSITABLE, materialIsMetal, metalOxidationState, saltIons, superscriptCharge } from './chemistry'
+import { ratToNumber, type ParsedReaction, type ReactionTerm } from './balance'
+import { ANIONS, DEPOSITABLE, KNOWN_GASES, materialIsMetal, metalOxidationState, saltIons, superscriptCharge } from './chemistry'
 import { ELEMENT_NAMES } from './elements'
 import { parseFormula, prettyFormula, type Formula } from './formula'
 
@@ -70,7 +71,7 @@ export interface StepInput {
   efficiency: number
 }
 
-export type ReactionKind = 'chlorine' | 'oxygen' | 'hydrogen' | 'deposition' | 'dissolution'
+export type ReactionKind = 'chlorine' | 'oxygen' | 'hydrogen' | 'deposition' | 'dissolution' | 'stated'
 
 export interface ElectrodeReaction {
   role: 'anode' | 'cathode'
@@ -85,6 +86,10 @@ export interface ElectrodeReaction {
   metal?: { element: string; charge: number }
   /** For oxygen and hydrogen: which form. */
   form?: 'acid' | 'alkaline'
+  /** For a stated reaction: what it forms per mole of electrons (water, H⁺ and OH⁻ aside). */
+  stated?: { formula: string; perElectron: number; gas: boolean }[]
+  /** For a stated reaction: OH⁻ made (cathode) or H⁺ made (anode) per mole of electrons. */
+  statedIons?: number
 }
 
 export interface Product {
@@ -283,6 +288,27 @@ export interface EngineInput {
   electrodes: ElectrodeInput[]
   separators: SeparatorInput[]
   steps: StepInput[]
+  /** Balanced half-reactions the protocol states; they replace the engine's choice for that electrode. */
+  stated?: { role: 'anode' | 'cathode'; text: string; parsed: ParsedReaction }[]
+}
+
+const GAS_STATE = /\(g\)$/
+
+/** An electrode reaction from a stated, balanced half-reaction. */
+function statedReaction(role: 'anode' | 'cathode', text: string, parsed: ParsedReaction, compartment: string, material: string): ElectrodeReaction {
+  const coef = (t: ReactionTerm) => (t.coefficient ? ratToNumber(t.coefficient) : 1)
+  const electrons = [...parsed.left, ...parsed.right].filter((t) => t.isElectron).reduce((sum, t) => sum + coef(t), 0)
+  const products: { formula: string; perElectron: number; gas: boolean }[] = []
+  let ionsMade = 0
+  for (const t of parsed.right) {
+    if (t.isElectron) continue
+    const per = coef(t) / electrons
+    if (t.formula === (role === 'anode' ? 'H^+' : 'OH^-') || t.formula === (role === 'anode' ? 'H+' : 'OH-')) ionsMade += per
+    else if (t.formula !== 'H2O' && t.formula !== 'H^+' && t.formula !== 'OH^-' && t.formula !== 'H+' && t.formula !== 'OH-') {
+      products.push({ formula: t.formula, perElectron: per, gas: GAS_STATE.test(t.species) || KNOWN_GASES.has(t.formula) })
+    }
+  }
+  return { role, compartment, material, kind: 'stated', equation: text, reason: 'stated in the protocol', stated: products, statedIons: ionsMade }
 }
 
 export function runEngine(input: EngineInput): EngineResult {
@@ -301,8 +327,14 @@ export function runEngine(input: EngineInput): EngineResult {
   if (!anodeIn || !cathodeIn) return result
   const aComp = anodeIn.compartment
   const cComp = cathodeIn.compartment
-  result.anode = chooseAnode(anodeIn.material, aComp, ions.get(aComp)!, ph.get(aComp)!, volumes.get(aComp))
-  result.cathode = chooseCathode(cathodeIn.material, cComp, ions.get(cComp)!, ph.get(cComp)!)
+  const statedAnode = input.stated?.find((x) => x.role === 'anode')
+  const statedCathode = input.stated?.find((x) => x.role === 'cathode')
+  result.anode = statedAnode
+    ? statedReaction('anode', statedAnode.text, statedAnode.parsed, aComp, anodeIn.material)
+    : chooseAnode(anodeIn.material, aComp, ions.get(aComp)!, ph.get(aComp)!, volumes.get(aComp))
+  result.cathode = statedCathode
+    ? statedReaction('cathode', statedCathode.text, statedCathode.parsed, cComp, cathodeIn.material)
+    : chooseCathode(cathodeIn.material, cComp, ions.get(cComp)!, ph.get(cComp)!)
   if (aComp === cComp) result.coupling = 'same'
   else {
     const sep = input.separators.find((s) => s.between.includes(aComp) && s.between.includes(cComp))
@@ -372,6 +404,10 @@ function bookkeep(input: EngineInput, r: EngineResult, full: boolean): Book {
       const h2e = ne - dep * m.charge
       put({ formula: 'H2', compartment: c, origin: 'cathode', gas: true, equation: '2 H₂O + 2 e⁻ → H₂ + 2 OH⁻', reason: 'hydrogen takes the current the deposition leaves' }, h2e / 2)
       hydroxide += h2e
+    } else if (cathode.kind === 'stated') {
+      for (const p of cathode.stated!) put({ formula: p.formula, compartment: c, origin: 'cathode', gas: p.gas, equation: cathode.equation, reason: cathode.reason }, eta * ne * p.perElectron)
+      put({ formula: 'H2', compartment: c, origin: 'cathode', gas: true, equation: '2 H₂O + 2 e⁻ → H₂ + 2 OH⁻', reason: 'hydrogen takes the current the stated reaction leaves' }, ((1 - eta) * ne) / 2)
+      hydroxide = eta * ne * cathode.statedIons! + (1 - eta) * ne
     } else {
       put({ formula: 'H2', compartment: c, origin: 'cathode', gas: true, equation: cathode.equation, reason: cathode.reason }, ne / 2)
       if (cathode.form === 'acid') protonsUsed = ne
@@ -399,6 +435,10 @@ function bookkeep(input: EngineInput, r: EngineResult, full: boolean): Book {
       const o2e = ne - 2 * chlorine
       put({ formula: 'O2', compartment: a, origin: 'anode', gas: true, equation: '2 H₂O → O₂ + 4 H⁺ + 4 e⁻', reason: 'oxygen takes the current the chlorine leaves' }, o2e / 4)
       protons = o2e
+    } else if (anode.kind === 'stated') {
+      for (const p of anode.stated!) put({ formula: p.formula, compartment: a, origin: 'anode', gas: p.gas, equation: anode.equation, reason: anode.reason }, eta * ne * p.perElectron)
+      put({ formula: 'O2', compartment: a, origin: 'anode', gas: true, equation: '2 H₂O → O₂ + 4 H⁺ + 4 e⁻', reason: 'oxygen takes the current the stated reaction leaves' }, ((1 - eta) * ne) / 4)
+      protons = eta * ne * anode.statedIons! + (1 - eta) * ne
     } else {
       put({ formula: 'O2', compartment: a, origin: 'anode', gas: true, equation: anode.equation, reason: anode.reason }, ne / 4)
       protons = ne

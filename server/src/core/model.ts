@@ -3,6 +3,7 @@
 // the facts recorded here into diagnostics, and each Computed value is a hint with its working.
 import { FARADAY, GAS_CONSTANT, DEFAULT_PRESSURE_PA, DEFAULT_TEMPERATURE_K, ZERO_CELSIUS, waterDensity } from './constants'
 import { KNOWN_GASES, productReaction } from './chemistry'
+import { balance, checkBalance, parseReaction, type BalanceCheck, type BalanceResult, type ParsedReaction } from './balance'
 import { runEngine, sameSubstance, type EngineResult, type Product } from './engine'
 import { parseFormula, prettyFormula, type Formula } from './formula'
 import type { Span } from './positions'
@@ -158,6 +159,19 @@ export interface YieldFact {
   litresPerMol?: number
 }
 
+/** A half-reaction the protocol states for an electrode (`reaction anode: ...`). */
+export interface StatedReaction {
+  line: number
+  role: 'anode' | 'cathode'
+  equation: Tok
+  parsed: ParsedReaction
+  check: BalanceCheck
+  /** The balanced form, when the equation as written does not balance and one exists. */
+  balanced?: BalanceResult
+  /** Electrons on the side that fits the electrode (anode gives them, cathode takes them). */
+  electronSide: 'right' | 'left' | 'none' | 'both'
+}
+
 /** A charge item whose amount needed a density v1 does not have (taken as water's). */
 export interface Approximation {
   line: number
@@ -170,6 +184,7 @@ export interface Approximation {
 export interface Model {
   tree: SyntaxTree
   approximations: Approximation[]
+  reactions: StatedReaction[]
   temperatureK: number
   pressurePa: number
   conditionsStated: { temperature: boolean; pressure: boolean }
@@ -197,6 +212,7 @@ export function buildModel(tree: SyntaxTree): Model {
   const m: Model = {
     tree,
     approximations: [],
+    reactions: [],
     temperatureK: DEFAULT_TEMPERATURE_K,
     pressurePa: DEFAULT_PRESSURE_PA,
     conditionsStated: { temperature: false, pressure: false },
@@ -271,6 +287,7 @@ export function buildModel(tree: SyntaxTree): Model {
     if (n.kind === 'charge') ev.charge(n)
     else if (n.kind === 'step') ev.step(n)
     else if (n.kind === 'handling') m.handling.push({ line: n.line, type: n.type, text: n.text })
+    else if (n.kind === 'reaction') m.reactions.push(statedReaction(n))
   }
   ev.compartmentSummaries()
   ev.stepTotals()
@@ -743,6 +760,9 @@ class Evaluator {
       electrodes: m.electrodes.map((e) => ({ role: e.role, material: e.material.text, compartment: e.compartment })),
       separators: m.separators.map((x) => ({ type: x.type.text, between: x.between })),
       steps: m.steps.map((x) => ({ line: x.line, ...(x.chargeC !== undefined ? { chargeC: x.chargeC } : {}), efficiency: x.efficiency })),
+      stated: m.reactions
+        .filter((r) => r.parsed.ok && r.check.balanced && r.electronSide === (r.role === 'anode' ? 'right' : 'left'))
+        .map((r) => ({ role: r.role, text: r.equation.text, parsed: r.parsed })),
     })
     m.engine = engine
     for (const r of [engine.anode, engine.cathode]) {
@@ -925,6 +945,23 @@ function amountText(p: Product, mol: number, litresPerMol: number, sig = 3): str
   if (p.gas) return `${fmt(mol * litresPerMol, sig)} L`
   const M = parseFormula(p.formula).molarMass
   return Number.isFinite(M) ? `${fmt(mol * M, sig)} g` : `${fmt(mol, sig)} mol`
+}
+
+function statedReaction(n: Extract<LineNode, { kind: 'reaction' }>): StatedReaction {
+  const parsed = parseReaction(n.equation.text)
+  const check = checkBalance(parsed)
+  const left = parsed.left.some((t) => t.isElectron)
+  const right = parsed.right.some((t) => t.isElectron)
+  const r: StatedReaction = {
+    line: n.line,
+    role: n.role.text as 'anode' | 'cathode',
+    equation: n.equation,
+    parsed,
+    check,
+    electronSide: left && right ? 'both' : left ? 'left' : right ? 'right' : 'none',
+  }
+  if (parsed.ok && !check.balanced) r.balanced = balance(parsed)
+  return r
 }
 
 interface ItemResult {

@@ -200,6 +200,24 @@ function parseLine(raw: string, base: number, line: number, inCell: boolean): Li
         }
         return { kind: kwText as 'expect' | 'observe', ...k, formula, quantity: restTok }
       }
+      case 'reaction': {
+        s.ws1('`anode` or `cathode`')
+        const role = s.word('`anode` or `cathode`, e.g. `reaction anode: 2 Cl- -> Cl2 + 2 e-`')
+        if (role.text !== 'anode' && role.text !== 'cathode') {
+          const guess = closest(role.text, ['anode', 'cathode'])
+          throw new LineError(
+            `expected \`anode\` or \`cathode\`, found \`${role.text}\``,
+            role.span.start - base,
+            role.span.end - base,
+            guess ? { start: role.span.start - base, end: role.span.end - base, newText: guess, title: `Change to \`${guess}\`` } : undefined,
+          )
+        }
+        s.ws()
+        s.lit(':', '`:` after the electrode')
+        s.ws()
+        const equation = s.restTok('the half-reaction, e.g. `2 Cl- -> Cl2 + 2 e-`')
+        return { kind: 'reaction', ...k, role, equation }
+      }
       case 'handling': {
         s.ws1('a kind')
         const type = s.word('a handling kind, e.g. `handling vent: ...`')

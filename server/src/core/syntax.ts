@@ -63,6 +63,7 @@ export type LineNode =
   | (Base & YieldFields & { kind: 'expect' })
   | (Base & YieldFields & { kind: 'observe' })
   | (Base & { kind: 'handling'; type: Tok; text: Tok })
+  | (Base & { kind: 'reaction'; role: Tok; equation: Tok })
   | (Base & { kind: 'error'; message: string; errorSpan: Span; fix?: { span: Span; newText: string; title: string } })
 
 export type NodeKind = LineNode['kind']
@@ -89,6 +90,7 @@ export const STATEMENT_KEYWORDS = [
   'expect',
   'observe',
   'handling',
+  'reaction',
 ] as const
 
 export const CELL_KEYWORDS = ['vessel', 'compartment', 'separator', 'anode', 'cathode'] as const

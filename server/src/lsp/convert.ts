@@ -78,6 +78,7 @@ const SYMBOL_KIND: Record<OutlineItem['kind'], SymbolKind> = {
   expect: SymbolKind.Key,
   observe: SymbolKind.Key,
   handling: SymbolKind.Object,
+  reaction: SymbolKind.Operator,
 }
 
 export function toDocumentSymbols(a: Analysis, items: OutlineItem[]): DocumentSymbol[] {

@@ -2,6 +2,7 @@
 import { approximateAmount } from './approximate-amount'
 import { badExpression } from './bad-expression'
 import { badFormula } from './bad-formula'
+import { badReaction } from './bad-reaction'
 import { belowCharged } from './below-charged'
 import { beyondFaraday } from './beyond-faraday'
 import { duplicateName } from './duplicate-name'
@@ -17,6 +18,7 @@ import { stepIncomplete } from './step-incomplete'
 import { syntax } from './syntax'
 import { unknownElement } from './unknown-element'
 import { unknownKind } from './unknown-kind'
+import { unbalancedReaction } from './unbalanced-reaction'
 import { unknownName } from './unknown-name'
 import { wrongUnit } from './wrong-unit'
 import { zeroForO } from './zero-for-o'
@@ -30,6 +32,8 @@ export const RULES: readonly Rule[] = [
   unknownElement,
   zeroForO,
   badFormula,
+  badReaction,
+  unbalancedReaction,
   duplicateName,
   shadowsUnit,
   unknownKind,
