@@ -513,6 +513,22 @@ describe('unbalanced-reaction', () => {
   })
 })
 
+// ---- two-amounts -------------------------------------------------------------------------------
+describe('two-amounts', () => {
+  it('a mass and an amount that disagree are an error, with a fix that rewrites the second', () => {
+    // K2CO3 138.2046 g/mol (IUPAC 2021): 100 g = 0.72357 mol; 1.5 mol is 107 % off
+    const src = BASE.replace('K2CO3 100 g', 'K2CO3 100 g (⟦1.5 mol⟧)')
+    const { text, ds } = at(src, 'two-amounts', 'error')
+    fixClears(text, ds[0], BASE.replace('K2CO3 100 g', 'K2CO3 100 g (0.7236 mol)'))
+  })
+
+  it('is silent when the two agree to rounding, and on `2 * (3 g)`', () => {
+    // 100 / 138.2046 = 0.72357 mol, written 0.724 mol (0.06 % apart)
+    silent(BASE.replace('K2CO3 100 g', 'K2CO3 100 g (0.724 mol)'), 'two-amounts')
+    silent(BASE.replace('K2CO3 100 g', 'K2CO3 2 * (50 g)'), 'two-amounts')
+  })
+})
+
 // ---- beyond-faraday ----------------------------------------------------------------------------
 describe('beyond-faraday', () => {
   const plating = (metal: string, salt: string, plan: string) =>

@@ -172,6 +172,19 @@ export interface StatedReaction {
   electronSide: 'right' | 'left' | 'none' | 'both'
 }
 
+/** An amount stated two ways (`260 g (1.88 mol)`), both evaluated. */
+export interface TwoWays {
+  line: number
+  /** The second statement, in parentheses. */
+  span: Span
+  what: string
+  /** Moles from the first statement and from the second. */
+  first: number
+  second: number
+  /** The second statement rewritten from the first, in its own unit. */
+  suggestion: string
+}
+
 /** A charge item whose amount needed a density v1 does not have (taken as water's). */
 export interface Approximation {
   line: number
@@ -184,6 +197,7 @@ export interface Approximation {
 export interface Model {
   tree: SyntaxTree
   approximations: Approximation[]
+  twoWays: TwoWays[]
   reactions: StatedReaction[]
   temperatureK: number
   pressurePa: number
@@ -212,6 +226,7 @@ export function buildModel(tree: SyntaxTree): Model {
   const m: Model = {
     tree,
     approximations: [],
+    twoWays: [],
     reactions: [],
     temperatureK: DEFAULT_TEMPERATURE_K,
     pressurePa: DEFAULT_PRESSURE_PA,
@@ -394,6 +409,9 @@ class Evaluator {
       const ff = this.formula(n.line, item.formula)
       const f = ff.formula
       const r = item.concentration ? this.solutionItem(n, item, ff, rhoW) : this.plainItem(n, item, ff, rhoW)
+      if (item.alternate) {
+        this.alternate(n, item.alternate, r?.mol, f.molarMass, ff.isWater ? ['mass', 'amount', 'volume'] : ['mass', 'amount'], rhoW, `${ff.isWater ? 'water' : item.formula.text} charged`)
+      }
       if (!r) continue
       this.m.computed.push({
         line: n.line,
@@ -748,6 +766,31 @@ class Evaluator {
     }
   }
 
+  /**
+   * The same amount stated a second way: evaluate it and record both, so a rule can tell a slip
+   * (`K2CO3 260 g (2.1 mol)`). Volumes mean water (by its density) or a gas (by `litresPerMol`).
+   */
+  alternate(n: LineNode, alt: Tok, firstMol: number | undefined, M: number, kinds: readonly Kind[], rhoW: number | undefined, what: string, litresPerMol?: number): void {
+    const q = this.quantity(n, alt, `the second statement of ${what}`, kinds, 'positive')
+    if (q.number === undefined || firstMol === undefined || !Number.isFinite(M)) return
+    let second: number
+    let suggestion: string
+    if (q.kind === 'amount') {
+      second = q.number
+      suggestion = `${fmt(firstMol, 4)} mol`
+    } else if (q.kind === 'mass') {
+      second = q.number / M
+      suggestion = `${fmt(firstMol * M, 4)} g`
+    } else if (litresPerMol) {
+      second = q.number / litresPerMol
+      suggestion = `${fmt(firstMol * litresPerMol, 4)} L`
+    } else if (rhoW) {
+      second = (q.number * 1000 * rhoW) / M
+      suggestion = `${fmt((firstMol * M) / rhoW, 4)} mL`
+    } else return
+    this.m.twoWays.push({ line: n.line, span: alt.span, what, first: firstMol, second, suggestion })
+  }
+
   /** Run the chemistry engine; show each electrode's reaction and each step's products. */
   chemistry(): void {
     const m = this.m
@@ -825,6 +868,9 @@ class Evaluator {
     const Vm = this.litresPerMol()
     if (gas && q.kind === 'volume') y.litresPerMol = Vm
     if (q.number !== undefined && q.number >= 0) y.mol = q.kind === 'mass' ? q.number / M : q.kind === 'amount' ? q.number : q.number / Vm
+    if (n.alternate) {
+      this.alternate(n, n.alternate, y.mol, M, kinds, gas ? undefined : waterDensity(this.m.temperatureK - ZERO_CELSIUS), `${n.formula.text} ${n.kind === 'expect' ? 'planned' : 'measured'}`, gas ? Vm : undefined)
+    }
     const pf = prettyFormula(ff.tok.text)
     let here: Product[] = formed
     if (cellKnown) {

@@ -187,18 +187,15 @@ function parseLine(raw: string, base: number, line: number, inCell: boolean): Li
         s.ws1('an amount')
         const restTok = s.restTok('an amount, e.g. `25 g`')
         const inMatch = /\s+in\s+([A-Za-z_][\w-]*)\s*$/.exec(restTok.text)
+        const qEnd = inMatch ? restTok.text.length - inMatch[0].length : restTok.text.length
+        const { main, alternate } = splitAlternate({ text: restTok.text.slice(0, qEnd), span: { start: restTok.span.start, end: restTok.span.start + qEnd } })
+        const yieldNode = { ...k, formula, quantity: main, ...(alternate ? { alternate } : {}) }
         if (inMatch) {
-          const qEnd = restTok.text.length - inMatch[0].length
           const nameStart = restTok.span.start + restTok.text.length - inMatch[1].length
-          return {
-            kind: kwText as 'expect' | 'observe',
-            ...k,
-            formula,
-            quantity: { text: restTok.text.slice(0, qEnd), span: { start: restTok.span.start, end: restTok.span.start + qEnd } },
-            compartment: { text: inMatch[1], span: { start: nameStart, end: nameStart + inMatch[1].length } },
-          }
+          const compartment = { text: inMatch[1], span: { start: nameStart, end: nameStart + inMatch[1].length } }
+          return kwText === 'expect' ? { kind: 'expect', ...yieldNode, compartment } : { kind: 'observe', ...yieldNode, compartment }
         }
-        return { kind: kwText as 'expect' | 'observe', ...k, formula, quantity: restTok }
+        return kwText === 'expect' ? { kind: 'expect', ...yieldNode } : { kind: 'observe', ...yieldNode }
       }
       case 'reaction': {
         s.ws1('`anode` or `cathode`')
@@ -275,7 +272,41 @@ function parseChargeItem(s: Cursor, t: Tok): ChargeItem {
       t.span.end - s.base,
     )
   }
-  return { span: t.span, formula, quantity: { text: rest, span: { start: restStart, end: restStart + rest.length } } }
+  const { main, alternate } = splitAlternate({ text: rest, span: { start: restStart, end: restStart + rest.length } })
+  return { span: t.span, formula, quantity: main, ...(alternate ? { alternate } : {}) }
+}
+
+/**
+ * `260 g (1.88 mol)`: a trailing parenthesised amount after a complete one is the same amount
+ * stated a second way. `2 * (3 g)` is not: the text before the parenthesis ends in an operator.
+ */
+export function splitAlternate(t: Tok): { main: Tok; alternate?: Tok } {
+  const text = t.text.trimEnd()
+  if (!text.endsWith(')')) return { main: t }
+  let depth = 0
+  let open = -1
+  for (let i = text.length - 1; i >= 0; i--) {
+    if (text[i] === ')') depth++
+    else if (text[i] === '(') {
+      depth--
+      if (depth === 0) {
+        open = i
+        break
+      }
+    }
+  }
+  if (open <= 0 || !/\s/.test(text[open - 1])) return { main: t }
+  const before = text.slice(0, open).trimEnd()
+  if (before === '' || /[-+*/^(,]$/.test(before)) return { main: t }
+  const inner = text.slice(open + 1, -1)
+  const innerLead = inner.length - inner.trimStart().length
+  const innerText = inner.trim()
+  if (innerText === '') return { main: t }
+  const altStart = t.span.start + open + 1 + innerLead
+  return {
+    main: { text: before, span: { start: t.span.start, end: t.span.start + before.length } },
+    alternate: { text: innerText, span: { start: altStart, end: altStart + innerText.length } },
+  }
 }
 
 function parseClauses(s: Cursor): Clause[] {

@@ -17,6 +17,8 @@ export interface ChargeItem {
   quantity: Expr
   /** Present for `FORMULA solution QUANTITY at CONCENTRATION`. */
   concentration?: Expr
+  /** The same amount stated a second way, in parentheses: `K2CO3 260 g (1.88 mol)`. */
+  alternate?: Expr
 }
 
 export interface Clause {
@@ -44,6 +46,8 @@ interface Base {
 interface YieldFields {
   formula: Tok
   quantity: Expr
+  /** The same amount stated a second way, in parentheses: `expect KOH 25 g (0.446 mol)`. */
+  alternate?: Expr
   compartment?: Tok
 }
 

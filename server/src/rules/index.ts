@@ -18,6 +18,7 @@ import { stepIncomplete } from './step-incomplete'
 import { syntax } from './syntax'
 import { unknownElement } from './unknown-element'
 import { unknownKind } from './unknown-kind'
+import { twoAmounts } from './two-amounts'
 import { unbalancedReaction } from './unbalanced-reaction'
 import { unknownName } from './unknown-name'
 import { wrongUnit } from './wrong-unit'
@@ -43,6 +44,7 @@ export const RULES: readonly Rule[] = [
   overfilled,
   approximateAmount,
   productReaction,
+  twoAmounts,
   beyondFaraday,
   belowCharged,
   efficiencyOver100,

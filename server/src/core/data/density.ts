@@ -69,8 +69,9 @@ const tables: Record<string, Table> = {
     source: `${CRC_DENS}; checked against Wikipedia "Sodium chloride (data page)" and fizyka.umk.pl (WNT 1974)`,
   },
   KCl: {
-    // From memory, not checked against a page (a calculator page quoting "10 % about 1.063, 20 %
-    // about 1.132" agrees). Saturation at 20 °C is 25.4 %.
+    // From memory, not checked against a handbook page; a low-authority calculator page
+    // (cal53.calculator.city, "KCl solution density") quotes 10 % about 1.063 and 20 % about 1.132,
+    // which agrees. Saturation at 20 °C is 25.4 %.
     points: [
       [0, WATER_20C], [0.5, 1.0014], [1, 1.0046], [2, 1.011], [3, 1.0174], [4, 1.0239],
       [5, 1.0304], [6, 1.0369], [7, 1.0434], [8, 1.05], [9, 1.0566], [10, 1.0633],
