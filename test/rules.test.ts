@@ -461,7 +461,7 @@ describe('approximate-amount', () => {
   it('a concentrated solution by volume with wt% is a warning; a dilute one a note', () => {
     const src = BASE.replace(
       'charge product: water 200 mL',
-      'charge product: water 100 mL, ⟦H2SO4 solution 10 mL at 98 wt%⟧, ⟦NaOH solution 50 mL at 2 wt%⟧',
+      'charge product: water 100 mL, ⟦H2SO4 solution 10 mL at 98 wt%⟧, ⟦NaNO3 solution 50 mL at 2 wt%⟧',
     )
     const { ds } = at(src, 'approximate-amount', ['warning', 'information'])
     // 98 wt% sulfuric acid is about 1.84 g/mL (CRC Handbook, from memory): a water-density guess is 46 % low
@@ -526,6 +526,33 @@ describe('two-amounts', () => {
     // 100 / 138.2046 = 0.72357 mol, written 0.724 mol (0.06 % apart)
     silent(BASE.replace('K2CO3 100 g', 'K2CO3 100 g (0.724 mol)'), 'two-amounts')
     silent(BASE.replace('K2CO3 100 g', 'K2CO3 2 * (50 g)'), 'two-amounts')
+  })
+})
+
+// ---- beyond-solubility -------------------------------------------------------------------------
+describe('beyond-solubility', () => {
+  it('a salt beyond its solubility in the water charged is a warning on the charge line', () => {
+    // NaCl at 20 °C: about 35.9 g per 100 g water (CRC Handbook, from memory): 1 L of water takes ~358 g
+    const src = BASE.replace('conditions 25 degC', 'conditions 20 degC').replace('charge product: water 200 mL', '⟦charge product: NaCl 400 g, water 1 L⟧')
+    const { ds } = at(src, 'beyond-solubility', 'warning')
+    expect(ds[0].message).toMatch(/^4\d(\.\d)? g of the 400 g NaCl stays solid/)
+  })
+
+  it('is silent below the solubility', () => {
+    silent(BASE.replace('charge product: water 200 mL', 'charge product: NaCl 300 g, water 1 L'), 'beyond-solubility')
+  })
+})
+
+// ---- below-reversible --------------------------------------------------------------------------
+describe('below-reversible', () => {
+  it('a cell voltage below the reversible voltage is a warning on the voltage', () => {
+    // water splitting needs at least 1.229 V (standard textbook value)
+    const src = BASE.replace('step 1: current 2 A for 1 h', 'step 1: voltage ⟦1.1 V⟧, current 2 A for 1 h')
+    at(src, 'below-reversible', 'warning')
+  })
+
+  it('is silent above it', () => {
+    silent(BASE.replace('step 1: current 2 A for 1 h', 'step 1: voltage 2.2 V, current 2 A for 1 h'), 'below-reversible')
   })
 })
 

@@ -5,6 +5,9 @@ import { FARADAY, GAS_CONSTANT, DEFAULT_PRESSURE_PA, DEFAULT_TEMPERATURE_K, ZERO
 import { KNOWN_GASES, productReaction } from './chemistry'
 import { balance, checkBalance, parseReaction, type BalanceCheck, type BalanceResult, type ParsedReaction } from './balance'
 import { runEngine, sameSubstance, type EngineResult, type Product } from './engine'
+import { cellVoltages, type CellVoltages } from './voltage'
+import { DENSITY_20C, massFractionFromMassConc, massFractionFromMolarity, solutionDensity } from './data/density'
+import { SOLUBILITY, solubilityAt } from './data/solubility'
 import { parseFormula, prettyFormula, type Formula } from './formula'
 import type { Span } from './positions'
 import type { ChargeItem, LineNode, SyntaxTree, Tok } from './syntax'
@@ -129,6 +132,8 @@ export interface StepFact {
   hasVoltageClause: boolean
   hasDurationClause: boolean
   usedArea?: { cm2: number; from: string }
+  /** Heat released in the step, J: (U − E_tn)·Q, when the voltage is stated. */
+  heatJ?: number
   /** A current density was given but the part it refers to has no area to multiply it by. */
   densityWithoutArea?: { span: Span; on: 'anode' | 'cathode' | 'separator' }
 }
@@ -185,6 +190,20 @@ export interface TwoWays {
   suggestion: string
 }
 
+/** A solute charged beyond its solubility in the water of its compartment. */
+export interface Undissolved {
+  line: number
+  span: Span
+  compartment: string
+  formula: string
+  chargedG: number
+  dissolvedG: number
+  gPer100gWater: number
+  celsius: number
+  /** Other solutes share the water (common ions lower the solubility further). */
+  others: boolean
+}
+
 /** A charge item whose amount needed a density v1 does not have (taken as water's). */
 export interface Approximation {
   line: number
@@ -197,6 +216,7 @@ export interface Approximation {
 export interface Model {
   tree: SyntaxTree
   approximations: Approximation[]
+  undissolved: Undissolved[]
   twoWays: TwoWays[]
   reactions: StatedReaction[]
   temperatureK: number
@@ -217,6 +237,8 @@ export interface Model {
   computed: Computed[]
   /** The chemistry engine's reactions and products (see engine.ts). */
   engine?: EngineResult
+  /** Standard reversible and thermoneutral voltages of the chosen reactions (see voltage.ts). */
+  voltages?: CellVoltages
   totals: { chargeC: number; electronMol: number; effectiveElectronMol: number; seconds: number; energyJ?: number }
 }
 
@@ -226,6 +248,7 @@ export function buildModel(tree: SyntaxTree): Model {
   const m: Model = {
     tree,
     approximations: [],
+    undissolved: [],
     twoWays: [],
     reactions: [],
     temperatureK: DEFAULT_TEMPERATURE_K,
@@ -516,6 +539,18 @@ class Evaluator {
     let solutionG: number | undefined
     let approximate = false
     let volumeL: number | undefined
+    // The solution's density from the 20 °C table, at a mass fraction w (%): exact where the table
+    // covers it, else water's density with the result marked approximate.
+    const table = DENSITY_20C[anhydrousKey(f).text]
+    const tableNote = table ? ` (20 °C; ${table.source})` : ''
+    const densityAt = (w: number | undefined) => {
+      const d = w === undefined ? undefined : solutionDensity(anhydrousKey(f).text, w)
+      return d && !d.extrapolated ? d.gPerMl : undefined
+    }
+    const wFromConc = (): number | undefined =>
+      c.kind === 'molarity' ? massFractionFromMolarity(anhydrousKey(f).text, c.number!, anhydrousKey(f).mass) : c.kind === 'mass-concentration' ? massFractionFromMassConc(anhydrousKey(f).text, c.number!) : c.number!
+    const w = table ? wFromConc() : c.kind === 'mass-fraction' ? c.number : undefined
+    const rho = densityAt(w)
     if (q.kind === 'volume') {
       volumeL = q.number
       if (c.kind === 'molarity') {
@@ -524,28 +559,41 @@ class Evaluator {
       } else if (c.kind === 'mass-concentration') {
         soluteG = q.number * c.number
         working.push(`m = V·c = ${given} × ${conc} = ${fmt(soluteG, 4)} g`)
+      } else if (rho) {
+        solutionG = q.number * 1000 * rho
+        soluteG = (solutionG * c.number) / 100
+        working.push(`m = V·ρ·w = ${given} × ${fmt(rho, 4)} g/mL${tableNote} × ${conc} = ${fmt(soluteG, 4)} g`)
       } else {
         approximate = true
         solutionG = q.number * 1000 * rhoW
         soluteG = (solutionG * c.number) / 100
         working.push(
           `≈ m = V·ρ·w = ${given} × ${fmt(rhoW, 4)} g/mL × ${conc} = ${fmt(soluteG, 4)} g`,
-          'approximate: the solution density is taken as that of water; state the solution by mass for an exact figure',
+          'approximate: no density table for this solution, so water\'s density is used; state the solution by mass for an exact figure',
         )
         this.m.approximations.push({ line: n.line, span: item.span, massPercent: c.number, suggestion: 'state the solution by mass' })
+      }
+      if (solutionG === undefined && rho) {
+        solutionG = q.number * 1000 * rho
+        working.push(`solution: V·ρ = ${given} × ${fmt(rho, 4)} g/mL${tableNote} = ${fmt(solutionG, 4)} g (${fmt(w!, 3)} wt%)`)
       }
     } else {
       solutionG = q.number
       if (c.kind === 'mass-fraction') {
         soluteG = (q.number * c.number) / 100
         working.push(`m = m_solution·w = ${given} × ${conc} = ${fmt(soluteG, 4)} g`)
+        if (rho) volumeL = q.number / rho / 1000
+      } else if (rho && w !== undefined) {
+        soluteG = (q.number * w) / 100
+        volumeL = q.number / rho / 1000
+        working.push(`${conc} is ${fmt(w, 4)} wt% at ${fmt(rho, 4)} g/mL${tableNote}: m = ${given} × ${fmt(w, 4)} % = ${fmt(soluteG, 4)} g; V = m/ρ = ${fmt(volumeL * 1000, 4)} mL`)
       } else {
         approximate = true
         volumeL = q.number / rhoW / 1000
         soluteG = c.kind === 'molarity' ? volumeL * c.number * M : volumeL * c.number
         working.push(
           `≈ V = m/ρ = ${given} ÷ ${fmt(rhoW, 4)} g/mL = ${fmt(volumeL * 1000, 4)} mL;  solute ${fmt(soluteG, 4)} g`,
-          'approximate: the solution density is taken as that of water; state the solution by volume for an exact figure',
+          'approximate: no density table for this solution, so water\'s density is used; state the solution by volume for an exact figure',
         )
         this.m.approximations.push({ line: n.line, span: item.span, massPercent: (100 * soluteG) / q.number, suggestion: 'state the solution by volume' })
       }
@@ -565,6 +613,7 @@ class Evaluator {
   }
 
   compartmentSummaries(): void {
+    const celsius = this.m.temperatureK - ZERO_CELSIUS
     for (const comp of this.m.compartments.values()) {
       if (comp.lastChargeLine === undefined) continue
       const node = this.m.tree.lines[comp.lastChargeLine]
@@ -572,29 +621,64 @@ class Evaluator {
       const working: string[] = []
       let solutesG = 0
       let approx = false
-      for (const [text, s] of comp.solutes) {
+      for (const s of comp.solutes.values()) {
         solutesG += s.g
         approx ||= s.approximate
-        if (comp.volumeL) {
-          const c = s.mol / comp.volumeL
-          parts.push(`${prettyFormula(text)} ${fmt(c)} mol/L`)
-          working.push(`c(${prettyFormula(text)}) = n/V = ${fmt(s.mol, 4)} mol ÷ ${fmt(comp.volumeL, 4)} L = ${fmt(c, 4)} mol/L  (${fmt(s.g / comp.volumeL, 4)} g/L)`)
+      }
+      const waterKnown = comp.waterKnown && comp.waterG > 0
+      // Solubility at the run temperature: what dissolves in the water charged, and what stays solid.
+      for (const [text, s] of comp.solutes) {
+        const sol = solubilityAt(text, celsius)
+        if (!sol || !waterKnown) continue
+        const maxG = (sol.gPer100gWater * comp.waterG) / 100
+        working.push(
+          `solubility of ${prettyFormula(text)} at ${fmt(celsius)} °C: ${fmt(sol.gPer100gWater, 4)} g per 100 g water${sol.extrapolated ? ' (outside the table: end value)' : ''} × ${fmt(comp.waterG, 4)} g water = ${fmt(maxG, 4)} g (${SOLUBILITY[text].source})`,
+        )
+        if (s.g > maxG) {
+          this.m.undissolved.push({ line: node.line, span: node.span, compartment: comp.name, formula: text, chargedG: s.g, dissolvedG: maxG, gPer100gWater: sol.gPer100gWater, celsius, others: comp.solutes.size > 1 })
+          parts.push(`${fmt(s.g - maxG)} g ${prettyFormula(text)} undissolved`)
         }
       }
-      if (comp.waterKnown && comp.waterG > 0 && comp.solutes.size > 0) {
-        const total = comp.waterG + solutesG
+      // Volume of the solution: from the density table for a single solute, else the compartment's.
+      const single = comp.solutes.size === 1 ? [...comp.solutes][0] : undefined
+      let volumeL = comp.volumeL
+      let volumeFrom = comp.volumeL ? `the volume declared for compartment ${comp.name}` : ''
+      if (single && waterKnown) {
+        const [text, s] = single
+        const dissolvedG = Math.min(s.g, this.m.undissolved.find((u) => u.compartment === comp.name && u.formula === text)?.dissolvedG ?? Infinity)
+        const total = comp.waterG + dissolvedG
+        const w = (100 * dissolvedG) / total
+        const rho = solutionDensity(text, w)
+        // A saturated solution may lie a little past the table's last point: its end value is within 1 %.
+        const last = DENSITY_20C[text]?.points.at(-1)?.[0] ?? 0
+        if (rho && (!rho.extrapolated || (w > last && w <= last + 1))) {
+          volumeL = total / rho.gPerMl / 1000
+          volumeFrom = `the solution's own volume: ${fmt(total, 4)} g ÷ ${fmt(rho.gPerMl, 4)} g/mL (${prettyFormula(text)} ${fmt(w, 3)} wt% at 20 °C; ${DENSITY_20C[text].source})`
+        }
+      }
+      // Concentrations count what dissolves; a solid excess is not in solution.
+      const dissolvedShare = (text: string, g: number) => {
+        const u = this.m.undissolved.find((x) => x.compartment === comp.name && x.formula === text)
+        return u ? u.dissolvedG / g : 1
+      }
+      for (const [text, s] of comp.solutes) {
+        if (!volumeL) continue
+        const c = (s.mol * dissolvedShare(text, s.g)) / volumeL
+        parts.push(`${prettyFormula(text)} ${fmt(c)} mol/L`)
+        working.push(`c(${prettyFormula(text)}) = n/V = ${fmt(c * volumeL, 4)} mol dissolved ÷ ${fmt(volumeL, 4)} L = ${fmt(c, 4)} mol/L  (${fmt((c * volumeL * s.g) / s.mol / volumeL, 4)} g/L)`)
+      }
+      if (waterKnown && comp.solutes.size > 0) {
+        let total = comp.waterG
+        for (const [text, s] of comp.solutes) total += s.g * dissolvedShare(text, s.g)
         for (const [text, s] of comp.solutes) {
-          const w = (100 * s.g) / total
-          working.push(`w(${prettyFormula(text)}) = ${fmt(s.g, 4)} g ÷ (${fmt(total, 4)} g of solution) = ${fmt(w, 3)} wt%`)
+          const g = s.g * dissolvedShare(text, s.g)
+          const w = (100 * g) / total
+          working.push(`w(${prettyFormula(text)}) = ${fmt(g, 4)} g dissolved ÷ (${fmt(total, 4)} g of solution) = ${fmt(w, 3)} wt%`)
           if (comp.solutes.size === 1) parts.push(`${fmt(w)} wt%`)
         }
       }
       if (parts.length === 0) continue
-      working.push(
-        comp.volumeL
-          ? `V = ${fmt(comp.volumeL * 1000, 4)} mL, the volume declared for compartment ${comp.name}; solubility is not checked yet`
-          : 'no compartment volume: concentrations need `compartment NAME VOLUME`',
-      )
+      working.push(volumeL ? `V = ${fmt(volumeL * 1000, 4)} mL, ${volumeFrom}` : 'no compartment volume: concentrations need `compartment NAME VOLUME`')
       this.m.computed.push({
         line: node.line,
         span: node.span,
@@ -823,11 +907,59 @@ class Evaluator {
       })
     }
     const Vm = this.litresPerMol()
+    const v = engine.anode && engine.cathode ? cellVoltages(engine.anode, engine.cathode) : undefined
+    if (v) {
+      m.voltages = v
+      const cell = m.tree.lines.find((x) => x.kind === 'cell')
+      if (cell) {
+        m.computed.push({
+          line: cell.line,
+          span: cell.span,
+          anchor: cell.span.end,
+          key: 'cell.voltages',
+          label: `E_rev ${fmt(v.reversible)} V · E_tn ${fmt(v.thermoneutral)} V`,
+          value: v.reversible,
+          unit: 'V',
+          title: 'Reversible and thermoneutral cell voltage (standard states, 25 °C)',
+          working: [
+            `overall, per mole of electrons: ${v.overall}`,
+            `E_rev = ΔG/F = ${fmt(v.reversible, 4)} V: below it the cell makes nothing`,
+            `E_tn = ΔH/F = ${fmt(v.thermoneutral, 4)} V: above it the cell heats up, below it it cools`,
+            'standard Gibbs energies and enthalpies of formation from the NBS tables (1982); concentrations and temperature not corrected for',
+          ],
+        })
+      }
+    }
     for (const sp of engine.steps) {
       if (sp.products.length === 0) continue
+      const step = m.steps.find((x) => x.line === sp.line)
+      const energy: string[] = []
+      const energyParts: string[] = []
+      if (step?.voltageV !== undefined && step.chargeC !== undefined) {
+        const E = step.voltageV * step.chargeC
+        const main = mainProduct(sp.products)
+        if (main) {
+          const M = parseFormula(main.formula).molarMass
+          const kg = (main.mol * M) / 1000
+          if (kg > 0) {
+            const specific = E / 3.6e6 / kg
+            energyParts.push(`${fmt(specific)} kWh/kg ${prettyFormula(main.formula)}`)
+            energy.push(`specific energy = E/m = ${fmt(E / 3600, 4)} W·h ÷ ${fmt(kg * 1000, 4)} g ${prettyFormula(main.formula)} = ${fmt(specific, 4)} kWh/kg`)
+          }
+        }
+        if (v) {
+          const heat = (step.voltageV - v.thermoneutral) * step.chargeC
+          step.heatJ = heat
+          energyParts.push(`heat ${fmt(heat / 3600)} W·h`)
+          energy.push(`heat = (U − E_tn)·Q = (${fmt(step.voltageV, 4)} − ${fmt(v.thermoneutral, 4)}) V × ${fmt(step.chargeC / 3600, 4)} A·h = ${fmt(heat / 3600, 4)} W·h${heat < 0 ? ' (the cell takes heat in)' : ''}`)
+        }
+      }
       // Solid and dissolved products first (usually the point of the run), then the gases.
       const shown = [...sp.products].sort((x, y) => Number(x.gas) - Number(y.gas))
-      const label = '→ ' + shown.map((p) => `${amountText(p, p.mol, Vm)} ${prettyFormula(p.formula)}`).join(' · ') + (sp.notes.length ? ' · ⚠ ' + sp.notes.length : '')
+      const label =
+        '→ ' +
+        [...shown.map((p) => `${amountText(p, p.mol, Vm)} ${prettyFormula(p.formula)}`), ...energyParts].join(' · ') +
+        (sp.notes.length ? ' · ⚠ ' + sp.notes.length : '')
       const node = m.tree.lines[sp.line]
       m.computed.push({
         line: sp.line,
@@ -838,6 +970,7 @@ class Evaluator {
         title: 'Products of this step',
         working: [
           ...sp.products.map((p) => `${prettyFormula(p.formula)} in ${p.compartment}: ${fmt(p.mol, 4)} mol = ${amountText(p, p.mol, Vm, 4)}  (${p.equation})`),
+          ...energy,
           ...sp.notes.map((x) => `⚠ ${x}`),
         ],
       })
@@ -971,6 +1104,16 @@ class Evaluator {
     if (out.length === 0 && comp) return this.saltsIn(undefined)
     return out
   }
+}
+
+/** The product a step is run for: a deposited metal or a follow-on product (hydroxide, acid), else chlorine, else hydrogen. */
+function mainProduct(products: Product[]): Product | undefined {
+  return (
+    products.find((p) => p.origin === 'cathode' && !p.gas) ??
+    products.find((p) => p.origin === 'follow-on' && !p.gas) ??
+    products.find((p) => p.formula === 'Cl2') ??
+    products.find((p) => p.formula === 'H2')
+  )
 }
 
 function couplingText(c: EngineResult['coupling']): string {

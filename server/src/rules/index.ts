@@ -4,7 +4,9 @@ import { badExpression } from './bad-expression'
 import { badFormula } from './bad-formula'
 import { badReaction } from './bad-reaction'
 import { belowCharged } from './below-charged'
+import { belowReversible } from './below-reversible'
 import { beyondFaraday } from './beyond-faraday'
+import { beyondSolubility } from './beyond-solubility'
 import { duplicateName } from './duplicate-name'
 import { efficiencyOver100 } from './efficiency-over-100'
 import { missingElectrode } from './missing-electrode'
@@ -43,11 +45,13 @@ export const RULES: readonly Rule[] = [
   stepIncomplete,
   overfilled,
   approximateAmount,
+  beyondSolubility,
   productReaction,
   twoAmounts,
   beyondFaraday,
   belowCharged,
   efficiencyOver100,
+  belowReversible,
 ]
 
 export type { Rule, RuleContext } from './rule'
