@@ -4,6 +4,7 @@
 import { describe, expect, it } from 'vitest'
 import { analyze, type Analysis } from '../server/src/core/analyze'
 import { evaluateExpression, inKindUnit, kindOf } from '../server/src/core/units'
+import * as math from 'mathjs'
 import { marked } from './support/markers'
 
 const F = 96485.33212 // C/mol, CODATA 2018
@@ -195,5 +196,50 @@ describe('stated reactions', () => {
     expect(a.model.engine?.cathode?.kind).toBe('stated')
     // Ni 58.6934 g/mol (IUPAC 2021): 3600 / (2 × F) × 58.6934 = 1.09497 g
     expect(maxGrams(a)[0]).toBeCloseTo((AH / (2 * F)) * 58.6934, 5)
+  })
+})
+
+describe('cell voltages and gas volumes through the analysis', () => {
+  const voltages = (a: Analysis) => a.model.voltages!
+  it('water electrolysis in alkali: 1.229 V reversible, 1.481 V thermoneutral', () => {
+    // standard textbook values: E_rev = 237.1 kJ/mol ÷ 2F, E_tn = 285.8 kJ/mol ÷ 2F
+    const a = analyze(bath(['charge bath: KOH solution 1 L at 6 M', 'step 1: current 1 A for 1 h']))
+    expect(voltages(a).reversible).toBeCloseTo(1.229, 3)
+    expect(voltages(a).thermoneutral).toBeCloseTo(1.481, 3)
+  })
+
+  it('chlor-alkali in a membrane cell: about 2.19 V reversible', () => {
+    // the chlor-alkali decomposition voltage, about 2.19 V (textbook figure, from memory)
+    const a = analyze(divided(['charge anolyte: NaCl solution 1 L at 300 g/L', 'charge catholyte: NaOH solution 1 L at 2 M', 'step 1: current 1 A for 1 h']))
+    expect(a.model.engine?.anode?.kind).toBe('chlorine')
+    expect(Math.abs(voltages(a).reversible - 2.19)).toBeLessThan(0.02)
+  })
+
+  it('copper electrowinning with an oxygen anode: 1.229 − 0.342 = 0.89 V', () => {
+    // E°(O2/H2O) = 1.229 V, E°(Cu2+/Cu) = 0.342 V (CRC electrochemical series, from memory)
+    const a = analyze(bath(['charge bath: CuSO4 100 g, H2SO4 solution 100 g at 20 wt%, water 800 mL', 'step 1: current 1 A for 1 h']))
+    expect(a.model.engine?.cathode?.kind).toBe('deposition')
+    expect(Math.abs(voltages(a).reversible - (1.229 - 0.342))).toBeLessThan(0.005)
+  })
+
+  it('the most noble ion deposits first: silver before copper', () => {
+    const a = analyze(bath(['charge bath: CuSO4 10 g, AgNO3 10 g, water 900 mL', 'step 1: current 0.1 A for 1 h']))
+    expect(a.model.engine?.cathode?.metal?.element).toBe('Ag')
+  })
+
+  it('hydrogen at 0 °C and 101.325 kPa takes the molar volume of an ideal gas (mathjs molarVolume)', () => {
+    const a = analyze(['conditions 0 degC, 101.325 kPa', ...bath(['charge bath: KOH solution 1 L at 1 M', 'step 1: current 1 A for 1 h', 'expect H2 0.1 L in bath']).split('\n')].join('\n'))
+    const mv = math.evaluate('molarVolume').toNumber('L/mol') // 22.414 L/mol (mathjs physical constant)
+    const y = a.model.yields[0]
+    expect(y.maxMolEff! * y.litresPerMol!).toBeCloseTo((AH / (2 * F)) * mv, 5)
+  })
+
+  it('at 25 °C and 100 kPa the molar volume is RT/p with R exact: 24.789 L/mol', () => {
+    const a = analyze(['conditions 25 degC, 100 kPa', ...bath(['charge bath: KOH solution 1 L at 1 M', 'step 1: current 1 A for 1 h', 'expect H2 0.1 L in bath']).split('\n')].join('\n'))
+    // R = 1.380649e-23 × 6.02214076e23 J/(mol·K) (SI 2019 exact); 298.15 K; 100000 Pa
+    const R = 1.380649e-23 * 6.02214076e23
+    expect(a.model.yields[0].litresPerMol!).toBeCloseTo(((R * 298.15) / 100000) * 1000, 9)
+    // 24.789 L/mol: molar volume of an ideal gas at 25 °C and 100 kPa (IUPAC Gold Book, from memory)
+    expect(Math.abs(a.model.yields[0].litresPerMol! - 24.789)).toBeLessThan(0.001)
   })
 })

@@ -21,6 +21,7 @@
 import { FARADAY } from './constants'
 import { ratToNumber, type ParsedReaction, type ReactionTerm } from './balance'
 import { ANIONS, DEPOSITABLE, KNOWN_GASES, materialIsMetal, metalOxidationState, saltIons, superscriptCharge } from './chemistry'
+import { potentialFor } from './data/potentials'
 import { ELEMENT_NAMES } from './elements'
 import { parseFormula, prettyFormula, type Formula } from './formula'
 
@@ -227,15 +228,25 @@ export function chooseAnode(material: string, compartment: string, ions: Ions, p
 
 export function chooseCathode(material: string, compartment: string, ions: Ions, ph: Ph): ElectrodeReaction {
   const base = { role: 'cathode' as const, compartment, material }
-  for (const el of NOBILITY) {
-    const c = ions.cations.get(el)
-    if (!c || c.mol <= 0 || !(el in DEPOSITABLE)) continue
+  // The most noble reducible ion deposits first: by standard potential where the table has the
+  // couple (data/potentials.ts), else by the usual order of nobility.
+  const present = NOBILITY.filter((el) => (ions.cations.get(el)?.mol ?? 0) > 0 && el in DEPOSITABLE)
+  const e0 = (el: string) => {
+    const z = ions.cations.get(el)!.charge
+    return potentialFor(`${el}^${z === 1 ? '' : z}+/${el}`)?.e0
+  }
+  const ordered = present.every((el) => e0(el) !== undefined) ? [...present].sort((x, y) => e0(y)! - e0(x)!) : present
+  for (const el of ordered) {
+    const c = ions.cations.get(el)!
+    const pot = e0(el)
     return {
       ...base,
       kind: 'deposition',
       metal: { element: el, charge: c.charge },
       equation: `${el}${sup(c.charge)} + ${c.charge} e⁻ → ${el}`,
-      reason: `${ELEMENT_NAMES[el] ?? el} ions (${el}${sup(c.charge)}) are the most noble reducible ions in ${compartment}`,
+      reason:
+        `${ELEMENT_NAMES[el] ?? el} ions (${el}${sup(c.charge)}${pot !== undefined ? `, E° = ${pot > 0 ? '+' : ''}${pot} V` : ''}) are the most noble reducible ions in ${compartment}` +
+        (present.length > 1 ? `; ${present.filter((x) => x !== el).join(', ')} stay in solution` : ''),
     }
   }
   if (ph === 'acidic') {
