@@ -68,7 +68,7 @@ describe('feed limits', () => {
     // × 74.43877 g/mol (22.98976928 + 35.45 + 15.999) = 74.515 g
     const mNaClO = 22.98976928 + 35.45 + 15.999
     expect(maxGrams(a)[0]).toBeCloseTo((58.5 / (22.98976928 + 35.45)) * mNaClO, 3)
-    expect(a.diagnostics.find((d) => d.code === 'product-reaction')?.message).toContain('nothing in this cell forms Cl₂')
+    expect(a.diagnostics.find((d) => d.code === 'product-reaction')?.message).toContain('forms hypochlorite (NaClO)')
   })
 })
 
@@ -241,5 +241,69 @@ describe('cell voltages and gas volumes through the analysis', () => {
     expect(a.model.yields[0].litresPerMol!).toBeCloseTo(((R * 298.15) / 100000) * 1000, 9)
     // 24.789 L/mol: molar volume of an ideal gas at 25 °C and 100 kPa (IUPAC Gold Book, from memory)
     expect(Math.abs(a.model.yields[0].litresPerMol! - 24.789)).toBeLessThan(0.001)
+  })
+})
+
+describe('engine review cases', () => {
+  const products = (a: Analysis) => a.model.engine!.totals
+  const amount = (a: Analysis, formula: string) => products(a).filter((p) => p.formula === formula).reduce((t, p) => t + p.mol, 0)
+
+  it('boric acid is a weak acid, not a base: a nickel anode in a Watts bath dissolves', () => {
+    const a = analyze(bath(['charge bath: NiSO4·6H2O 300 g, NiCl2·6H2O 45 g, H3BO3 40 g, water 800 mL', 'step 1: current 2 A for 1 h']).replace('anode platinum', 'anode nickel'))
+    expect(a.model.engine?.anode?.kind).toBe('dissolution')
+  })
+
+  it('a diaphragm with hydroxide on both sides transfers nothing: no hydroxide formed', () => {
+    const src = divided(['charge anolyte: KOH solution 1 L at 6 M', 'charge catholyte: KOH solution 1 L at 6 M', 'step 1: current 10 A for 1 h']).replace('cation-exchange', 'diaphragm')
+    const a = analyze(src)
+    expect(amount(a, 'KOH')).toBe(0)
+    // 10 A·h / (2F) = 0.18655 mol H2 (by hand)
+    expect(amount(a, 'H2')).toBeCloseTo((10 * AH) / (2 * F), 9)
+  })
+
+  it('current efficiency is against Faraday for the whole charge, even after the feed ran out', () => {
+    const a = analyze(bath(['charge bath: CuSO4 10 g, H2SO4 solution 100 g at 20 wt%, water 800 mL', 'step 1: current 1 A for 10 h', 'observe Cu 2 g in bath']))
+    // Faraday: 10 A·h = 0.37311 mol e⁻ → 0.18655 mol Cu; 2 g / 63.546 = 0.031473 mol → 16.87 %
+    const ce = a.computed.find((c) => c.key === 'observe.efficiency')!.value!
+    expect(ce).toBeCloseTo(2 / 63.546 / ((10 * AH) / (2 * F)), 6)
+  })
+
+  it('electrowinning with an oxygen anode regenerates the acid: CuSO4 + H2O → Cu + H2SO4 + ½ O2', () => {
+    const a = analyze(bath(['charge bath: CuSO4 100 g, H2SO4 solution 100 g at 20 wt%, water 800 mL', 'step 1: current 1 A for 1 h']))
+    // one H2SO4 per Cu (standard textbook stoichiometry): 1 A·h / (2F) = 0.018655 mol each
+    expect(amount(a, 'H2SO4')).toBeCloseTo(amount(a, 'Cu'), 12)
+    expect(amount(a, 'Cu')).toBeCloseTo(AH / (2 * F), 9)
+  })
+
+  it('a stated reaction draws down the ions it uses', () => {
+    const a = analyze(divided(['reaction anode: 2 Cl- -> Cl2 + 2 e-', 'charge anolyte: NaCl 5.85 g, water 900 mL', 'charge catholyte: water 900 mL', 'step 1: current 10 A for 1 h']))
+    // 5.85 g NaCl = 0.100103 mol Cl⁻ (22.98976928 + 35.45 g/mol) → at most 0.050051 mol Cl2
+    expect(amount(a, 'Cl2')).toBeCloseTo(5.85 / (22.98976928 + 35.45) / 2, 9)
+  })
+
+  it('an undivided cell splitting water has the standard 1.229 V, not the acid-base gradient', () => {
+    const a = analyze(bath(['charge bath: Na2SO4 71 g, water 1 L', 'step 1: current 1 A for 1 h']))
+    expect(a.model.voltages!.reversible).toBeCloseTo(1.229, 3) // standard textbook value
+  })
+
+  it('a stainless anode in sulfate evolves oxygen (and says chromate); in chloride it pits and dissolves', () => {
+    const sulfate = analyze(bath(['charge bath: Na2SO4 71 g, water 1 L']).replace('anode platinum', 'anode stainless-steel'))
+    expect(sulfate.model.engine?.anode?.kind).toBe('oxygen')
+    expect(sulfate.model.engine?.anode?.reason).toContain('Cr(VI)')
+    const chloride = analyze(bath(['charge bath: NaCl 58 g, water 1 L']).replace('anode platinum', 'anode stainless-steel'))
+    expect(chloride.model.engine?.anode?.kind).toBe('dissolution')
+  })
+
+  it('does not warn from a solubility table that ends below the run temperature', () => {
+    // ZnSO4 is tabulated only to 20 °C in data/solubility.ts
+    const a = analyze(['conditions 80 degC', ...bath(['charge bath: ZnSO4 500 g, water 500 mL']).split('\n')].join('\n'))
+    expect(a.diagnostics.filter((d) => d.code === 'beyond-solubility')).toEqual([])
+  })
+
+  it('a step held below the reversible voltage forms nothing', () => {
+    const a = analyze(bath(['charge bath: KOH solution 1 L at 1 M', 'step 1: voltage 1.0 V, current 1 A for 1 h', 'step 2: voltage 2.0 V, current 1 A for 1 h']))
+    // only step 2 counts: 1 A·h / (2F) mol H2
+    expect(amount(a, 'H2')).toBeCloseTo(AH / (2 * F), 9)
+    expect(a.computed.find((c) => c.key === 'step.products' && c.line === a.model.steps[0].line)?.label).toContain('nothing forms')
   })
 })

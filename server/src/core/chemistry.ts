@@ -84,6 +84,9 @@ export const DEPOSITABLE: Record<string, number> = {
 /** Metals that form hydroxides at a cathode but cannot be deposited from water. */
 export const ALKALI_LIKE = new Set(['Li', 'Na', 'K', 'Rb', 'Cs', 'Mg', 'Ca', 'Sr', 'Ba', 'Al'])
 
+/** Elements that are never the cation of a salt (boric acid is not B³⁺ + 3 OH⁻). */
+const NON_METALS = new Set(['H', 'He', 'B', 'C', 'N', 'O', 'F', 'Ne', 'Si', 'P', 'S', 'Cl', 'Ar', 'As', 'Se', 'Br', 'Kr', 'Te', 'I', 'Xe', 'At', 'Rn'])
+
 export interface SaltIons {
   cation: string
   cationCount: number
@@ -112,7 +115,7 @@ export function saltIons(f: Formula): SaltIons | undefined {
     const left = [...rest].filter(([, v]) => v !== 0)
     if (left.length !== 1 || left[0][1] <= 0) continue
     const [cation, cationCount] = left[0]
-    if (cation === 'H' || !(cation in ATOMIC_WEIGHTS)) continue
+    if (NON_METALS.has(cation) || !(cation in ATOMIC_WEIGHTS)) continue
     const charge = (k * -anion.charge) / cationCount
     if (!Number.isInteger(charge) || charge <= 0 || charge > 4) continue
     return { cation, cationCount, cationCharge: charge, anion: anion.name, anionCount: k, anionCharge: anion.charge }

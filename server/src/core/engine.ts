@@ -26,7 +26,7 @@ import { ELEMENT_NAMES } from './elements'
 import { parseFormula, prettyFormula, type Formula } from './formula'
 
 /** Chloride concentration from which an inert anode evolves mainly chlorine rather than oxygen. */
-export const CHLORIDE_FOR_CHLORINE = 0.5 // mol/L; common practice, no source (dilute chloride gives mostly oxygen)
+export const CHLORIDE_FOR_CHLORINE = 0.05 // mol/L; common practice, no source: on-site hypochlorite generators run 3 % brine (0.5 mol/L) and seawater; much more dilute chloride gives mostly oxygen
 
 /** Order of nobility for deposition: the first one present deposits first (standard potentials, CRC electrochemical series, from memory). */
 const NOBILITY = ['Au', 'Pt', 'Pd', 'Ag', 'Rh', 'Cu', 'Bi', 'Sb', 'Pb', 'Sn', 'Ni', 'Co', 'Cd', 'In', 'Fe', 'Cr', 'Zn', 'Mn']
@@ -34,7 +34,9 @@ const NOBILITY = ['Au', 'Pt', 'Pd', 'Ag', 'Rh', 'Cu', 'Bi', 'Sb', 'Pb', 'Sn', 'N
 /** Metals that dissolve as an anode, with the charge of the ion they form. */
 const SOLUBLE_ANODES: Record<string, number> = { Cu: 2, Ni: 2, Zn: 2, Ag: 1, Sn: 2, Cd: 2, Fe: 2, Co: 2, Pb: 2 }
 /** Anode materials made of iron (steels). */
-const IRON_MATERIALS = /^(iron|steel|mild-steel|carbon-steel|stainless|stainless-steel|ss\d*|aisi-?\d+|\d{3}-stainless)/i
+const IRON_MATERIALS = /^(iron|steel|mild-steel|carbon-steel|cast-iron)/i
+/** Stainless steels: passive; they evolve oxygen, with transpassive dissolution that releases chromate. */
+const STAINLESS = /^(stainless|stainless-steel|ss-?\d*|aisi-?\d+|\d{3}l?-stainless|\d{3}l?)$/i
 /** Metals passive as anodes in alkaline solution (they evolve oxygen there). */
 const PASSIVE_IN_ALKALI = new Set(['Ni', 'Fe', 'Co'])
 /** Lead anodes form PbO2 and evolve oxygen in sulfate/sulfuric acid (electrowinning practice). */
@@ -91,10 +93,14 @@ export interface ElectrodeReaction {
   stated?: { formula: string; perElectron: number; gas: boolean }[]
   /** For a stated reaction: OH⁻ made (cathode) or H⁺ made (anode) per mole of electrons. */
   statedIons?: number
+  /** For a stated reaction: the ions it draws from the solution, per mole of electrons. */
+  statedUses?: { kind: 'cation' | 'anion'; key: string; perElectron: number }[]
 }
 
 export interface Product {
   formula: string
+  /** Electrons one formula unit takes to form (its share of the charge): Faraday's law for it. */
+  electrons: number
   compartment: string
   /** Where it comes from: the electrode, or a follow-on reaction in the compartment. */
   origin: 'anode' | 'cathode' | 'follow-on'
@@ -121,6 +127,8 @@ export interface EngineResult {
   cathode?: ElectrodeReaction
   /** How the two sides are joined. */
   coupling: 'same' | 'cation' | 'anion' | 'none'
+  /** The separator between the electrodes, when there is one (`diaphragm` is not ion-selective). */
+  separator?: string
   steps: StepProducts[]
   totals: Product[]
 }
@@ -198,6 +206,16 @@ export function anodeMetal(material: string): string | undefined {
 export function chooseAnode(material: string, compartment: string, ions: Ions, ph: Ph, volumeL: number | undefined): ElectrodeReaction {
   const base = { role: 'anode' as const, compartment, material }
   const metal = anodeMetal(material)
+  const stainless = STAINLESS.test(material)
+  if (stainless && (ions.anions.get('Cl')?.mol ?? 0) > 0 && ph !== 'alkaline') {
+    return {
+      ...base,
+      kind: 'dissolution',
+      metal: { element: 'Fe', charge: 2 },
+      equation: 'Fe → Fe²⁺ + 2 e⁻',
+      reason: 'chloride breaks the passive film of a stainless anode: it pits and dissolves, releasing chromium as chromate, Cr(VI)',
+    }
+  }
   if (metal && !(ph === 'alkaline' && PASSIVE_IN_ALKALI.has(metal)) && metal !== 'Pb') {
     const z = SOLUBLE_ANODES[metal]
     return {
@@ -218,7 +236,13 @@ export function chooseAnode(material: string, compartment: string, ions: Ions, p
       reason: `chloride ${clConc !== undefined ? `${clConc.toPrecision(3)} mol/L ` : ''}at an inert ${material} anode evolves chlorine`,
     }
   }
-  const passive = metal ? ` (${material} is passive in alkaline solution)` : ''
+  const passive = stainless
+    ? ` (stainless steel is passive and evolves oxygen, but dissolves transpassively and releases chromate, Cr(VI))`
+    : metal === 'Pb'
+      ? ' (a lead anode forms PbO₂ and evolves oxygen)'
+      : metal
+        ? ` (${material} is passive in alkaline solution)`
+        : ''
   const dilute = cl > 0 ? ` (chloride below ${CHLORIDE_FOR_CHLORINE} mol/L gives mostly oxygen)` : ''
   if (ph === 'alkaline') {
     return { ...base, kind: 'oxygen', form: 'alkaline', equation: '4 OH⁻ → O₂ + 2 H₂O + 4 e⁻', reason: `oxygen from the alkaline ${compartment}${passive}${dilute}` }
@@ -319,7 +343,20 @@ function statedReaction(role: 'anode' | 'cathode', text: string, parsed: ParsedR
       products.push({ formula: t.formula, perElectron: per, gas: GAS_STATE.test(t.species) || KNOWN_GASES.has(t.formula) })
     }
   }
-  return { role, compartment, material, kind: 'stated', equation: text, reason: 'stated in the protocol', stated: products, statedIons: ionsMade }
+  // The ions on the left that the solution must supply (water, H⁺ and OH⁻ aside).
+  const uses: { kind: 'cation' | 'anion'; key: string; perElectron: number }[] = []
+  for (const t of parsed.left) {
+    if (t.isElectron) continue
+    const f = parseFormula(t.formula)
+    if (!f.ok || f.charge === 0) continue
+    const per = coef(t) / electrons
+    if (f.charge > 0 && f.counts.size === 1 && !f.counts.has('H')) uses.push({ kind: 'cation', key: [...f.counts.keys()][0], perElectron: per })
+    else if (f.charge < 0) {
+      const a = ANIONS.find((x) => x.charge === f.charge && Object.keys(x.counts).length === f.counts.size && Object.entries(x.counts).every(([el, n]) => f.counts.get(el) === n))
+      if (a && a.name !== 'OH') uses.push({ kind: 'anion', key: a.name, perElectron: per })
+    }
+  }
+  return { role, compartment, material, kind: 'stated', equation: text, reason: 'stated in the protocol', stated: products, statedIons: ionsMade, statedUses: uses }
 }
 
 export function runEngine(input: EngineInput): EngineResult {
@@ -349,7 +386,12 @@ export function runEngine(input: EngineInput): EngineResult {
   if (aComp === cComp) result.coupling = 'same'
   else {
     const sep = input.separators.find((s) => s.between.includes(aComp) && s.between.includes(cComp))
-    result.coupling = !sep || sep.type === 'none' ? 'same' : sep.type === 'anion-exchange' ? 'anion' : 'cation'
+    if (sep) result.separator = sep.type
+    // A diaphragm is not ion-selective: with hydroxide on the anode side, hydroxide carries the
+    // current back and nothing is transferred (alkaline water electrolysis); with a salt feed the
+    // brine's cations reach the cathode side with the flow through it, much as through a membrane.
+    const diaphragmInAlkali = sep?.type === 'diaphragm' && (ions.get(aComp)!.anions.get('OH')?.mol ?? 0) > 0
+    result.coupling = !sep || sep.type === 'none' || diaphragmInAlkali ? 'same' : sep.type === 'anion-exchange' ? 'anion' : 'cation'
   }
   const withEff = bookkeep(input, result, false)
   const at100 = bookkeep(input, result, true)
@@ -411,16 +453,17 @@ function bookkeep(input: EngineInput, r: EngineResult, full: boolean): Book {
       const dep = soluble ? wanted : Math.min(wanted, ion.mol)
       if (!soluble) ion.mol -= dep
       if (dep < wanted - 1e-15) notes.push(`${m.element}${sup(m.charge)} in ${c} ran out; the rest of the current evolves hydrogen`)
-      put({ formula: m.element, compartment: c, origin: 'cathode', gas: false, equation: cathode.equation, reason: cathode.reason }, dep)
+      put({ formula: m.element, electrons: m.charge, compartment: c, origin: 'cathode', gas: false, equation: cathode.equation, reason: cathode.reason }, dep)
       const h2e = ne - dep * m.charge
-      put({ formula: 'H2', compartment: c, origin: 'cathode', gas: true, equation: '2 H₂O + 2 e⁻ → H₂ + 2 OH⁻', reason: 'hydrogen takes the current the deposition leaves' }, h2e / 2)
+      put({ formula: 'H2', electrons: 2, compartment: c, origin: 'cathode', gas: true, equation: '2 H₂O + 2 e⁻ → H₂ + 2 OH⁻', reason: 'hydrogen takes the current the deposition leaves' }, h2e / 2)
       hydroxide += h2e
     } else if (cathode.kind === 'stated') {
-      for (const p of cathode.stated!) put({ formula: p.formula, compartment: c, origin: 'cathode', gas: p.gas, equation: cathode.equation, reason: cathode.reason }, eta * ne * p.perElectron)
-      put({ formula: 'H2', compartment: c, origin: 'cathode', gas: true, equation: '2 H₂O + 2 e⁻ → H₂ + 2 OH⁻', reason: 'hydrogen takes the current the stated reaction leaves' }, ((1 - eta) * ne) / 2)
-      hydroxide = eta * ne * cathode.statedIons! + (1 - eta) * ne
+      const used = statedShare(cathode, cIons, eta * ne, c)
+      for (const p of cathode.stated!) put({ formula: p.formula, electrons: 1 / p.perElectron, compartment: c, origin: 'cathode', gas: p.gas, equation: cathode.equation, reason: cathode.reason }, used * p.perElectron)
+      put({ formula: 'H2', electrons: 2, compartment: c, origin: 'cathode', gas: true, equation: '2 H₂O + 2 e⁻ → H₂ + 2 OH⁻', reason: 'hydrogen takes the current the stated reaction leaves' }, (ne - used) / 2)
+      hydroxide = used * cathode.statedIons! + (ne - used)
     } else {
-      put({ formula: 'H2', compartment: c, origin: 'cathode', gas: true, equation: cathode.equation, reason: cathode.reason }, ne / 2)
+      put({ formula: 'H2', electrons: 2, compartment: c, origin: 'cathode', gas: true, equation: cathode.equation, reason: cathode.reason }, ne / 2)
       if (cathode.form === 'acid') protonsUsed = ne
       else hydroxide = ne
     }
@@ -429,7 +472,7 @@ function bookkeep(input: EngineInput, r: EngineResult, full: boolean): Book {
     let chlorine = 0
     if (anode.kind === 'dissolution') {
       const m = anode.metal!
-      put({ formula: `${m.element}${'^' + m.charge + '+'}`, compartment: a, origin: 'anode', gas: false, equation: anode.equation, reason: anode.reason }, ne / m.charge)
+      put({ formula: `${m.element}${'^' + m.charge + '+'}`, electrons: m.charge, compartment: a, origin: 'anode', gas: false, equation: anode.equation, reason: anode.reason }, ne / m.charge)
       if (!(cathode.kind === 'deposition' && cathode.metal?.element === m.element)) {
         const ion = aIons.cations.get(m.element)
         aIons.cations.set(m.element, { mol: (ion?.mol ?? 0) + ne / m.charge, charge: m.charge })
@@ -444,30 +487,34 @@ function bookkeep(input: EngineInput, r: EngineResult, full: boolean): Book {
       cl.mol -= clPerCl2 * chlorine
       if (chlorine < wanted - 1e-15) notes.push(`chloride in ${a} ran out; the rest of the current evolves oxygen`)
       const o2e = ne - 2 * chlorine
-      put({ formula: 'O2', compartment: a, origin: 'anode', gas: true, equation: '2 H₂O → O₂ + 4 H⁺ + 4 e⁻', reason: 'oxygen takes the current the chlorine leaves' }, o2e / 4)
+      put({ formula: 'O2', electrons: 4, compartment: a, origin: 'anode', gas: true, equation: '2 H₂O → O₂ + 4 H⁺ + 4 e⁻', reason: 'oxygen takes the current the chlorine leaves' }, o2e / 4)
       protons = o2e
     } else if (anode.kind === 'stated') {
-      for (const p of anode.stated!) put({ formula: p.formula, compartment: a, origin: 'anode', gas: p.gas, equation: anode.equation, reason: anode.reason }, eta * ne * p.perElectron)
-      put({ formula: 'O2', compartment: a, origin: 'anode', gas: true, equation: '2 H₂O → O₂ + 4 H⁺ + 4 e⁻', reason: 'oxygen takes the current the stated reaction leaves' }, ((1 - eta) * ne) / 4)
-      protons = eta * ne * anode.statedIons! + (1 - eta) * ne
+      const used = statedShare(anode, aIons, eta * ne, a)
+      for (const p of anode.stated!) put({ formula: p.formula, electrons: 1 / p.perElectron, compartment: a, origin: 'anode', gas: p.gas, equation: anode.equation, reason: anode.reason }, used * p.perElectron)
+      put({ formula: 'O2', electrons: 4, compartment: a, origin: 'anode', gas: true, equation: '2 H₂O → O₂ + 4 H⁺ + 4 e⁻', reason: 'oxygen takes the current the stated reaction leaves' }, (ne - used) / 4)
+      protons = used * anode.statedIons! + (ne - used)
     } else {
-      put({ formula: 'O2', compartment: a, origin: 'anode', gas: true, equation: anode.equation, reason: anode.reason }, ne / 4)
+      put({ formula: 'O2', electrons: 4, compartment: a, origin: 'anode', gas: true, equation: anode.equation, reason: anode.reason }, ne / 4)
       protons = ne
     }
     // --- what the separator carries, and what pairs up in each compartment
     if (r.coupling === 'same') {
-      // Acid and base made in one solution neutralise; chlorine meets the hydroxide as hypochlorite.
-      const base = hydroxide - protons - protonsUsed
+      // Acid and base made in one solution neutralise (an acid cathode consuming H⁺ counts as base);
+      // chlorine meets the hydroxide as hypochlorite; protons left over make acid with the anion
+      // present (electrowinning regenerates its sulfuric acid).
+      const base = hydroxide + protonsUsed - protons
       if (chlorine > 0 && base > 0) {
         const cat = crossing(cIons)
         const hypo = Math.min(chlorine, base / 2)
         const name = cat ? `${cat[0]}ClO` : 'ClO^-'
-        put({ formula: name, compartment: c, origin: 'follow-on', gas: false, equation: 'Cl₂ + 2 OH⁻ → ClO⁻ + Cl⁻ + H₂O', reason: 'in one compartment the chlorine meets the hydroxide made at the cathode' }, hypo)
+        put({ formula: name, electrons: 2, compartment: c, origin: 'follow-on', gas: false, equation: 'Cl₂ + 2 OH⁻ → ClO⁻ + Cl⁻ + H₂O', reason: 'in one compartment the chlorine meets the hydroxide made at the cathode' }, hypo)
         chlorine -= hypo
       }
-      if (chlorine > 0) put({ formula: 'Cl2', compartment: a, origin: 'anode', gas: true, equation: anode.equation, reason: anode.reason }, chlorine)
+      if (chlorine > 0) put({ formula: 'Cl2', electrons: 2, compartment: a, origin: 'anode', gas: true, equation: anode.equation, reason: anode.reason }, chlorine)
+      if (base < 0) anodeAcid(-base)
     } else {
-      if (chlorine > 0) put({ formula: 'Cl2', compartment: a, origin: 'anode', gas: true, equation: anode.equation, reason: anode.reason }, chlorine)
+      if (chlorine > 0) put({ formula: 'Cl2', electrons: 2, compartment: a, origin: 'anode', gas: true, equation: anode.equation, reason: anode.reason }, chlorine)
       const carried = eta * ne // charge carried by the intended ions; the rest by H⁺ or OH⁻
       if (r.coupling === 'cation') {
         const cat = crossing(aIons)
@@ -479,7 +526,7 @@ function bookkeep(input: EngineInput, r: EngineResult, full: boolean): Book {
           if (moved * v.charge < carried - 1e-15) notes.push(`${el}${sup(v.charge)} in ${a} ran out; protons carry the rest of the current and the hydroxide stops growing`)
           const formed = Math.min(moved, hydroxide / v.charge)
           put(
-            { formula: hydroxideFormula(el, v.charge), compartment: c, origin: 'follow-on', gas: false, equation: `${el}${sup(v.charge)} (through the membrane) + ${v.charge === 1 ? '' : v.charge + ' '}OH⁻ → ${hydroxideFormula(el, v.charge)}`, reason: `${el}${sup(v.charge)} crosses the cation-exchange separator from ${a} and pairs with the hydroxide made at the cathode` },
+            { formula: hydroxideFormula(el, v.charge), electrons: v.charge, compartment: c, origin: 'follow-on', gas: false, equation: `${el}${sup(v.charge)} (through the separator) + ${v.charge === 1 ? '' : v.charge + ' '}OH⁻ → ${hydroxideFormula(el, v.charge)}`, reason: `${el}${sup(v.charge)} crosses the cation-exchange separator from ${a} and pairs with the hydroxide made at the cathode` },
             formed,
           )
         }
@@ -497,13 +544,28 @@ function bookkeep(input: EngineInput, r: EngineResult, full: boolean): Book {
           v.mol -= moved
           if (moved * z < carried - 1e-15) notes.push(`${name}${sup(v.charge)} in ${c} ran out; hydroxide carries the rest of the current`)
           const cat = crossing(cIons)
-          if (cat) put({ formula: hydroxideFormula(cat[0], cat[1].charge), compartment: c, origin: 'follow-on', gas: false, equation: 'the cations left behind pair with the hydroxide made at the cathode', reason: `${name}${sup(v.charge)} leaves ${c} through the anion-exchange separator` }, (moved * z) / cat[1].charge)
+          if (cat) put({ formula: hydroxideFormula(cat[0], cat[1].charge), electrons: cat[1].charge, compartment: c, origin: 'follow-on', gas: false, equation: 'the cations left behind pair with the hydroxide made at the cathode', reason: `${name}${sup(v.charge)} leaves ${c} through the anion-exchange separator` }, (moved * z) / cat[1].charge)
           const acid = acidFormula(name, v.charge)
-          put({ formula: acid, compartment: a, origin: 'follow-on', gas: false, equation: `${name}${sup(v.charge)} (through the membrane) + ${z === 1 ? '' : z + ' '}H⁺ → ${acid}`, reason: `${name}${sup(v.charge)} crosses the anion-exchange separator from ${c} and pairs with the protons made at the anode` }, Math.min(moved, protons / z))
+          put({ formula: acid, electrons: z, compartment: a, origin: 'follow-on', gas: false, equation: `${name}${sup(v.charge)} (through the separator) + ${z === 1 ? '' : z + ' '}H⁺ → ${acid}`, reason: `${name}${sup(v.charge)} crosses the anion-exchange separator from ${c} and pairs with the protons made at the anode` }, Math.min(moved, protons / z))
         }
       }
     }
     steps.push({ line: s.line, products: [...ledger.formed.values()], notes })
+
+    /** Mol of electrons a stated reaction takes, up to `wanted`, as far as the ions it uses last; draws them down. */
+    function statedShare(r: ElectrodeReaction, side: Ions, wanted: number, where: string): number {
+      let share = wanted
+      for (const u of r.statedUses ?? []) {
+        const ion = (u.kind === 'cation' ? side.cations : side.anions).get(u.key)
+        share = Math.min(share, (ion?.mol ?? 0) / u.perElectron)
+      }
+      for (const u of r.statedUses ?? []) {
+        const ion = (u.kind === 'cation' ? side.cations : side.anions).get(u.key)
+        if (ion) ion.mol -= share * u.perElectron
+      }
+      if (share < wanted - 1e-15) notes.push(`the ions the stated ${r.role} reaction uses in ${where} ran out; ${r.role === 'anode' ? 'oxygen' : 'hydrogen'} takes the rest of the current`)
+      return Math.max(0, share)
+    }
 
     /** Protons left in the anode compartment: carbonate takes them first, then they stay as acid. */
     function anodeAcid(h: number) {
@@ -523,14 +585,14 @@ function bookkeep(input: EngineInput, r: EngineResult, full: boolean): Book {
         const t = Math.min(hco3.mol, left)
         hco3.mol -= t
         left -= t
-        put({ formula: 'CO2', compartment: a, origin: 'follow-on', gas: true, equation: 'H⁺ + HCO₃⁻ → CO₂ + H₂O', reason: `the protons made at the anode acidify the bicarbonate in ${a}` }, t)
+        put({ formula: 'CO2', electrons: 1, compartment: a, origin: 'follow-on', gas: true, equation: 'H⁺ + HCO₃⁻ → CO₂ + H₂O', reason: `the protons made at the anode acidify the bicarbonate in ${a}` }, t)
         if (hco3.mol <= 1e-15) notes.push(`the bicarbonate in ${a} is used up; the ${a} turns acidic`)
       }
       if (left > 0) {
         const an = crossingAnion(aIons)
         if (an && an[0] !== 'HCO3' && an[0] !== 'CO3') {
           const acid = acidFormula(an[0], an[1].charge)
-          put({ formula: acid, compartment: a, origin: 'follow-on', gas: false, equation: `${-an[1].charge === 1 ? '' : -an[1].charge + ' '}H⁺ + ${an[0]}${sup(an[1].charge)} → ${acid}`, reason: `the protons made at the anode stay in ${a} with its ${an[0]}${sup(an[1].charge)}` }, left / -an[1].charge)
+          put({ formula: acid, electrons: -an[1].charge, compartment: a, origin: 'follow-on', gas: false, equation: `${-an[1].charge === 1 ? '' : -an[1].charge + ' '}H⁺ + ${an[0]}${sup(an[1].charge)} → ${acid}`, reason: `the protons made at the anode stay in ${a} with its ${an[0]}${sup(an[1].charge)}` }, left / -an[1].charge)
         }
         const hIon = aIons.cations.get('H') ?? { mol: 0, charge: 1 }
         hIon.mol += left

@@ -151,7 +151,7 @@ export interface YieldFact {
   /** Stated amount less what was charged: formed by the run, mol. */
   formedMol?: number
   /** The reaction that forms the product, as the engine chose it (or as assumed without a cell). */
-  reaction?: { equation: string; reason: string; compartment?: string; gas: boolean }
+  reaction?: { equation: string; reason: string; compartment?: string; gas: boolean; electrons: number }
   noReaction?: string
   /** Where the product forms is not where the line says. */
   wrongCompartment?: { formedIn: string[] }
@@ -243,6 +243,8 @@ export interface Model {
 }
 
 const CM2 = 1 // areas are kept in cm²
+/** Liquids charged by volume are taken as measured at room temperature. */
+const MEASURING_CELSIUS = 20
 
 export function buildModel(tree: SyntaxTree): Model {
   const m: Model = {
@@ -426,8 +428,8 @@ class Evaluator {
   charge(n: Extract<LineNode, { kind: 'charge' }>): void {
     const known = this.ref(n.line, n.compartment)
     const comp = known ? this.m.compartments.get(n.compartment.text) : undefined
-    const celsius = this.m.temperatureK - ZERO_CELSIUS
-    const rhoW = waterDensity(celsius) // g/mL
+    // Liquids are measured out at room temperature, whatever the run's temperature: 20 °C.
+    const rhoW = waterDensity(MEASURING_CELSIUS) // g/mL
     for (const item of n.items) {
       const ff = this.formula(n.line, item.formula)
       const f = ff.formula
@@ -486,7 +488,7 @@ class Evaluator {
         approximate: false,
         label: `${fmt(g)} g · ${fmt(mol)} mol`,
         working: [
-          `m = V·ρ = ${given} × ${fmt(rhoW, 5)} g/mL (water at ${fmt(this.m.temperatureK - ZERO_CELSIUS)} °C) = ${fmt(g, 4)} g`,
+          `m = V·ρ = ${given} × ${fmt(rhoW, 5)} g/mL (water measured at ${MEASURING_CELSIUS} °C) = ${fmt(g, 4)} g`,
           `n = m/M = ${fmt(g, 4)} g ÷ ${fmt(M, 5)} g/mol = ${fmt(mol, 4)} mol`,
         ],
       }
@@ -631,8 +633,13 @@ class Evaluator {
         const sol = solubilityAt(text, celsius)
         if (!sol || !waterKnown) continue
         const maxG = (sol.gPer100gWater * comp.waterG) / 100
+        if (sol.extrapolated) {
+          const pts = SOLUBILITY[text].points
+          working.push(`solubility of ${prettyFormula(text)}: the table (${SOLUBILITY[text].source}) covers ${pts[0][0]}-${pts[pts.length - 1][0]} °C only; not checked at ${fmt(celsius)} °C`)
+          continue
+        }
         working.push(
-          `solubility of ${prettyFormula(text)} at ${fmt(celsius)} °C: ${fmt(sol.gPer100gWater, 4)} g per 100 g water${sol.extrapolated ? ' (outside the table: end value)' : ''} × ${fmt(comp.waterG, 4)} g water = ${fmt(maxG, 4)} g (${SOLUBILITY[text].source})`,
+          `solubility of ${prettyFormula(text)} at ${fmt(celsius)} °C: ${fmt(sol.gPer100gWater, 4)} g per 100 g water × ${fmt(comp.waterG, 4)} g water = ${fmt(maxG, 4)} g (${SOLUBILITY[text].source})`,
         )
         if (s.g > maxG) {
           this.m.undissolved.push({ line: node.line, span: node.span, compartment: comp.name, formula: text, chargedG: s.g, dissolvedG: maxG, gPer100gWater: sol.gPer100gWater, celsius, others: comp.solutes.size > 1 })
@@ -878,19 +885,28 @@ class Evaluator {
   /** Run the chemistry engine; show each electrode's reaction and each step's products. */
   chemistry(): void {
     const m = this.m
-    const engine = runEngine({
-      compartments: [...m.compartments.values()].map((c) => ({
-        name: c.name,
-        ...(c.volumeL !== undefined ? { volumeL: c.volumeL } : {}),
-        solutes: [...c.solutes.values()].map((x) => ({ formula: x.formula, mol: x.mol })),
-      })),
-      electrodes: m.electrodes.map((e) => ({ role: e.role, material: e.material.text, compartment: e.compartment })),
-      separators: m.separators.map((x) => ({ type: x.type.text, between: x.between })),
-      steps: m.steps.map((x) => ({ line: x.line, ...(x.chargeC !== undefined ? { chargeC: x.chargeC } : {}), efficiency: x.efficiency })),
-      stated: m.reactions
-        .filter((r) => r.parsed.ok && r.check.balanced && r.electronSide === (r.role === 'anode' ? 'right' : 'left'))
-        .map((r) => ({ role: r.role, text: r.equation.text, parsed: r.parsed })),
-    })
+    const run = (below?: number) =>
+      runEngine({
+        compartments: [...m.compartments.values()].map((c) => ({
+          name: c.name,
+          ...(c.volumeL !== undefined ? { volumeL: c.volumeL } : {}),
+          solutes: [...c.solutes.values()].map((x) => ({ formula: x.formula, mol: x.mol })),
+        })),
+        electrodes: m.electrodes.map((e) => ({ role: e.role, material: e.material.text, compartment: e.compartment })),
+        separators: m.separators.map((x) => ({ type: x.type.text, between: x.between })),
+        // A step held below the reversible voltage forms nothing.
+        steps: m.steps.map((x) => ({
+          line: x.line,
+          ...(x.chargeC !== undefined && !(below !== undefined && x.voltageV !== undefined && x.voltageV < below) ? { chargeC: x.chargeC } : {}),
+          efficiency: x.efficiency,
+        })),
+        stated: m.reactions
+          .filter((r) => r.parsed.ok && r.check.balanced && r.electronSide === (r.role === 'anode' ? 'right' : 'left'))
+          .map((r) => ({ role: r.role, text: r.equation.text, parsed: r.parsed })),
+      })
+    let engine = run()
+    const v0 = engine.anode && engine.cathode ? cellVoltages(engine.anode, engine.cathode, engine.coupling === 'same') : undefined
+    if (v0 && m.steps.some((x) => x.voltageV !== undefined && x.voltageV < v0.reversible)) engine = run(v0.reversible)
     m.engine = engine
     for (const r of [engine.anode, engine.cathode]) {
       if (!r) continue
@@ -907,7 +923,7 @@ class Evaluator {
       })
     }
     const Vm = this.litresPerMol()
-    const v = engine.anode && engine.cathode ? cellVoltages(engine.anode, engine.cathode) : undefined
+    const v = v0
     if (v) {
       m.voltages = v
       const cell = m.tree.lines.find((x) => x.kind === 'cell')
@@ -931,6 +947,20 @@ class Evaluator {
       }
     }
     for (const sp of engine.steps) {
+      const held = m.steps.find((x) => x.line === sp.line)
+      if (v && held?.voltageV !== undefined && held.chargeC !== undefined && held.voltageV < v.reversible) {
+        const node = m.tree.lines[sp.line]
+        m.computed.push({
+          line: sp.line,
+          span: node.span,
+          anchor: node.span.end,
+          key: 'step.products',
+          label: '→ nothing forms below E_rev',
+          title: 'Products of this step',
+          working: [`${fmt(held.voltageV, 4)} V is below the reversible voltage ${fmt(v.reversible, 4)} V of the chosen reactions: no product is counted for this step`],
+        })
+        continue
+      }
       if (sp.products.length === 0) continue
       const step = m.steps.find((x) => x.line === sp.line)
       const energy: string[] = []
@@ -1002,12 +1032,18 @@ class Evaluator {
     if (gas && q.kind === 'volume') y.litresPerMol = Vm
     if (q.number !== undefined && q.number >= 0) y.mol = q.kind === 'mass' ? q.number / M : q.kind === 'amount' ? q.number : q.number / Vm
     if (n.alternate) {
-      this.alternate(n, n.alternate, y.mol, M, kinds, gas ? undefined : waterDensity(this.m.temperatureK - ZERO_CELSIUS), `${n.formula.text} ${n.kind === 'expect' ? 'planned' : 'measured'}`, gas ? Vm : undefined)
+      this.alternate(n, n.alternate, y.mol, M, kinds, gas ? undefined : waterDensity(MEASURING_CELSIUS), `${n.formula.text} ${n.kind === 'expect' ? 'planned' : 'measured'}`, gas ? Vm : undefined)
     }
     const pf = prettyFormula(ff.tok.text)
     let here: Product[] = formed
     if (cellKnown) {
       if (!f.ok) return
+      const hypochlorite = engine!.anode!.kind === 'chlorine' && engine!.coupling === 'same' && ff.tok.text === 'Cl2'
+      if (formed.length === 0 && hypochlorite) {
+        const hypo = engine!.totals.find((p) => /ClO$/.test(p.formula))
+        y.noReaction = `the chlorine made at the anode meets the hydroxide made at the cathode in the same solution and forms hypochlorite${hypo ? ` (${prettyFormula(hypo.formula)})` : ''}; plan that instead, or divide the cell`
+        return
+      }
       if (formed.length === 0) {
         y.noReaction = `nothing in this cell forms ${pf}: the anode runs ${engine!.anode!.equation} (${engine!.anode!.reason}); the cathode runs ${engine!.cathode!.equation} (${engine!.cathode!.reason})`
         return
@@ -1019,17 +1055,21 @@ class Evaluator {
           here = formed
         }
       }
-      y.reaction = { equation: here[0].equation, reason: here[0].reason, compartment: here[0].compartment, gas: here[0].gas }
+      y.reaction = { equation: here[0].equation, reason: here[0].reason, compartment: here[0].compartment, gas: here[0].gas, electrons: here[0].electrons }
       y.maxMolEff = here.reduce((t, p) => t + p.mol, 0)
-      y.maxMol100 = here.reduce((t, p) => t + p.mol100, 0)
-      y.feedLimited = engine!.steps.some((s) => s.notes.length > 0)
+      // Current efficiency is measured against Faraday's law for the whole charge (n(e⁻)/z),
+      // whatever the feed allowed.
+      y.maxMol100 = this.m.totals.electronMol / here[0].electrons
+      // Only the run's main products are capped by a feed; hydrogen and oxygen take the rest of the current.
+      const side = here[0].formula === 'H2' || here[0].formula === 'O2'
+      y.feedLimited = !side && engine!.steps.some((s) => s.notes.length > 0)
     } else {
       if (!fallback || !fallback.ok) {
         if (f.ok && fallback) y.noReaction = fallback.why
         return
       }
       const r = fallback.reaction
-      y.reaction = { equation: r.equation, reason: `${r.reason}; no anode and cathode are described, so the usual reaction is assumed`, gas: r.gas }
+      y.reaction = { equation: r.equation, reason: `${r.reason}; no anode and cathode are described, so the usual reaction is assumed`, gas: r.gas, electrons: r.electrons }
       if (this.m.totals.electronMol > 0) {
         y.maxMol100 = this.m.totals.electronMol / r.electrons
         y.maxMolEff = (r.fromWater ? this.m.totals.electronMol : this.m.totals.effectiveElectronMol) / r.electrons
@@ -1045,10 +1085,10 @@ class Evaluator {
     const working = [
       `${y.reaction.equation}  (${y.reaction.reason})`,
       `n(e⁻) = ${fmt(this.m.totals.electronMol, 4)} mol over all steps`,
-      `${pf} formed: ${fmt(y.maxMolEff, 4)} mol = ${fmt(y.maxMolEff * M, 4)} g at the steps' efficiencies; ${fmt(y.maxMol100, 4)} mol at 100 %`,
+      `${pf} formed: ${fmt(y.maxMolEff, 4)} mol = ${fmt(y.maxMolEff * M, 4)} g at the steps' efficiencies${y.feedLimited ? ' and with the feed running out' : ''}; Faraday's law for the whole charge: n(e⁻)/${fmt(y.reaction.electrons, 4)} = ${fmt(y.maxMol100, 4)} mol`,
     ]
     if (gas) {
-      working.push(`gas volume at ${fmt(this.m.temperatureK - ZERO_CELSIUS)} °C and ${fmt(this.m.pressurePa / 1000, 5)} kPa: V = nRT/p = ${fmt(y.maxMolEff * Vm, 4)} L (ideal gas)`)
+      working.push(`gas volume at ${fmt(this.m.temperatureK - ZERO_CELSIUS)} °C and ${fmt(this.m.pressurePa / 1000, 5)} kPa: V = nRT/p = ${fmt(y.maxMolEff * Vm, 4)} L (dry ideal gas; gas over the hot electrolyte also carries water vapour)`)
     }
     if (y.feedLimited) working.push(...engine!.steps.flatMap((s) => s.notes.map((x) => `⚠ step on line ${s.line + 1}: ${x}`)))
     if (y.initialMol > 0) {
@@ -1060,7 +1100,7 @@ class Evaluator {
         `max ${shown(y.initialMol + y.maxMolEff)}` +
         (y.initialMol > 0 ? ` incl. ${shown(y.initialMol)} charged` : '') +
         (y.feedLimited ? ' (feed-limited)' : '') +
-        (formedMol !== undefined && y.maxMolEff > 0 ? ` · plan ${fmt((100 * formedMol) / y.maxMolEff)} % of max` : '')
+        (formedMol !== undefined && formedMol >= 0 && y.maxMolEff > 0 ? ` · plan ${fmt((100 * formedMol) / y.maxMolEff)} % of max` : '')
       this.m.computed.push({
         line: n.line,
         span: n.span,
@@ -1075,7 +1115,7 @@ class Evaluator {
     } else if (formedMol !== undefined && y.maxMol100 > 0) {
       const ce = formedMol / y.maxMol100
       working.push(
-        `current efficiency = formed ÷ formed at 100 % = ` +
+        `current efficiency = formed ÷ (n(e⁻)/${fmt(y.reaction.electrons, 4)}) = ` +
           (y.initialMol > 0 ? `(${fmt(y.mol!, 4)} − ${fmt(y.initialMol, 4)}) mol` : `${fmt(formedMol, 4)} mol`) +
           ` ÷ ${fmt(y.maxMol100, 4)} mol = ${fmt(ce * 100, 3)} %`,
       )

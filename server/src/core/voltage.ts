@@ -47,7 +47,7 @@ function halfSpecies(r: ElectrodeReaction): { consumed: Side; formed: Side } | u
 }
 
 /** Standard voltages of a cell running these two reactions, or undefined when data is missing. */
-export function cellVoltages(anode: ElectrodeReaction, cathode: ElectrodeReaction): CellVoltages | undefined {
+export function cellVoltages(anode: ElectrodeReaction, cathode: ElectrodeReaction, oneSolution = false): CellVoltages | undefined {
   const a = halfSpecies(anode)
   const c = halfSpecies(cathode)
   if (!a || !c) return undefined
@@ -60,6 +60,15 @@ export function cellVoltages(anode: ElectrodeReaction, cathode: ElectrodeReactio
   addSide(c.formed, 1)
   addSide(a.consumed, -1)
   addSide(c.consumed, -1)
+  // In one solution the H⁺ of one electrode and the OH⁻ of the other meet as water.
+  const hPlus = net.get('H^+(aq)') ?? 0
+  const ohMinus = net.get('OH^-(aq)') ?? 0
+  if (oneSolution && hPlus > 0 && ohMinus > 0) {
+    const k = Math.min(hPlus, ohMinus)
+    net.set('H^+(aq)', hPlus - k)
+    net.set('OH^-(aq)', ohMinus - k)
+    net.set('H2O(l)', (net.get('H2O(l)') ?? 0) + k)
+  }
   let dG = 0
   let dH = 0
   for (const [k, v] of net) {
