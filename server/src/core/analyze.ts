@@ -3,7 +3,7 @@
 import { RULES } from '../rules'
 import type { Diagnostic } from './diagnostics'
 import { prettyFormula } from './formula'
-import { buildModel, type Computed, type Model } from './model'
+import { buildModel, type Computed, type Model, type ModelOptions } from './model'
 import { parse } from './parser'
 import { LineIndex, type Span } from './positions'
 import type { LineNode, SyntaxTree } from './syntax'
@@ -18,10 +18,10 @@ export interface Analysis {
   diagnostics: Diagnostic[]
 }
 
-export function analyze(text: string): Analysis {
+export function analyze(text: string, options: ModelOptions = {}): Analysis {
   const index = new LineIndex(text)
   const tree = parse(text, index)
-  const model = buildModel(tree)
+  const model = buildModel(tree, options)
   const diagnostics: Diagnostic[] = []
   for (const rule of RULES) {
     try {

@@ -6,6 +6,7 @@ import { KNOWN_GASES, productReaction } from './chemistry'
 import { balance, checkBalance, parseReaction, type BalanceCheck, type BalanceResult, type ParsedReaction } from './balance'
 import { runEngine, sameSubstance, type EngineResult, type Product } from './engine'
 import { cellVoltages, type CellVoltages } from './voltage'
+import { simulate, type SimResult, type SimTarget } from './simulate'
 import { DENSITY_20C, massFractionFromMassConc, massFractionFromMolarity, solutionDensity } from './data/density'
 import { SOLUBILITY, solubilityAt } from './data/solubility'
 import { parseFormula, prettyFormula, type Formula } from './formula'
@@ -94,6 +95,8 @@ export interface Separator {
   type: Tok
   between: [string, string]
   areaCm2?: number
+  /** Electro-osmotic drag, mol water per mol of charge carried by cations. */
+  drag?: number
 }
 
 /** A value computed from the protocol, shown as a hint and explained in a hover. */
@@ -239,6 +242,10 @@ export interface Model {
   engine?: EngineResult
   /** Standard reversible and thermoneutral voltages of the chosen reactions (see voltage.ts). */
   voltages?: CellVoltages
+  /** The time-stepped simulation of the run (see simulate.ts), when the cell is described. */
+  simulation?: SimResult
+  /** Concentrations `expect` lines plan for (targets for the simulation). */
+  targets: SimTarget[]
   totals: { chargeC: number; electronMol: number; effectiveElectronMol: number; seconds: number; energyJ?: number }
 }
 
@@ -246,10 +253,16 @@ const CM2 = 1 // areas are kept in cm²
 /** Liquids charged by volume are taken as measured at room temperature. */
 const MEASURING_CELSIUS = 20
 
-export function buildModel(tree: SyntaxTree): Model {
+export interface ModelOptions {
+  /** Report a step whose simulated current efficiency falls below this fraction (default 0.8). */
+  efficiencyFloor?: number
+}
+
+export function buildModel(tree: SyntaxTree, options: ModelOptions = {}): Model {
   const m: Model = {
     tree,
     approximations: [],
+    targets: [],
     undissolved: [],
     twoWays: [],
     reactions: [],
@@ -309,7 +322,14 @@ export function buildModel(tree: SyntaxTree): Model {
       ev.ref(n.line, a)
       ev.ref(n.line, b)
       const area = n.area ? ev.quantity(n, n.area, 'the separator area', ['area'], 'positive').number : undefined
-      m.separators.push({ line: n.line, type: n.type, between: [a.text, b.text], ...(area !== undefined ? { areaCm2: area * CM2 } : {}) })
+      const drag = n.drag ? ev.quantity(n, n.drag, 'the electro-osmotic drag (mol water per mol cation)', ['dimensionless'], 'non-negative').number : undefined
+      m.separators.push({
+        line: n.line,
+        type: n.type,
+        between: [a.text, b.text],
+        ...(area !== undefined ? { areaCm2: area * CM2 } : {}),
+        ...(drag !== undefined && drag >= 0 ? { drag } : {}),
+      })
     } else if (n.kind === 'electrode') {
       ev.ref(n.line, n.compartment)
       const area = n.area ? ev.quantity(n, n.area, `the ${n.role} area`, ['area'], 'positive').number : undefined
@@ -335,6 +355,8 @@ export function buildModel(tree: SyntaxTree): Model {
   for (const n of tree.lines) {
     if (n.kind === 'expect' || n.kind === 'observe') ev.yieldLine(n)
   }
+  ev.simulation(options.efficiencyFloor ?? 0.8)
+  ev.simulatedYields()
   return m
 }
 
@@ -882,6 +904,144 @@ class Evaluator {
     this.m.twoWays.push({ line: n.line, span: alt.span, what, first: firstMol, second, suggestion })
   }
 
+  /** Simulate the run step by step; show each step's state, its events and the end state. */
+  simulation(efficiencyFloor: number): void {
+    const m = this.m
+    const e = m.engine
+    if (!e?.anode || !e.cathode || e.anode.kind === 'stated' || e.cathode.kind === 'stated') return
+    if (m.steps.every((x) => x.chargeC === undefined)) return
+    const sepType = e.separator === 'cation-exchange' || e.separator === 'anion-exchange' || e.separator === 'diaphragm' ? e.separator : undefined
+    const divided = e.anode.compartment !== e.cathode.compartment && !!sepType
+    // Without a separator the two compartments are one solution.
+    const merged = e.anode.compartment !== e.cathode.compartment && !divided
+    const compartments = [...m.compartments.values()]
+      .filter((c) => !merged || c.name !== e.cathode!.compartment)
+      .map((c) => {
+        const parts = merged && c.name === e.anode!.compartment ? [c, m.compartments.get(e.cathode!.compartment)!] : [c]
+        return {
+          name: c.name,
+          waterG: parts.reduce((t, p) => t + p.waterG, 0),
+          solutes: parts.flatMap((p) => [...p.solutes].map(([text, x]) => ({ formula: text, mol: x.mol }))),
+        }
+      })
+    const cathode = merged ? { ...e.cathode, compartment: e.anode.compartment } : e.cathode
+    const sep = m.separators.find((x) => x.between.includes(e.anode!.compartment) && x.between.includes(e.cathode!.compartment))
+    const v = m.voltages
+    const sim = simulate({
+      compartments,
+      anode: e.anode,
+      cathode,
+      ...(divided ? { separator: { type: sepType!, ...(sep?.drag !== undefined ? { drag: sep.drag } : {}) } } : {}),
+      steps: m.steps.map((x) => ({
+        line: x.line,
+        // A step below the reversible voltage passes no faradaic current.
+        ...(x.currentA !== undefined && !(v && x.voltageV !== undefined && x.voltageV < v.reversible) ? { currentA: x.currentA } : {}),
+        ...(x.seconds !== undefined ? { seconds: x.seconds } : {}),
+        efficiency: x.efficiency,
+        ...(x.voltageV !== undefined ? { voltageV: x.voltageV } : {}),
+      })),
+      temperatureK: m.temperatureK,
+      cooled: m.handling.some((h) => h.type.text === 'cooling'),
+      ...(v ? { thermoneutralV: v.thermoneutral } : {}),
+      targets: m.targets,
+      efficiencyFloor,
+    })
+    m.simulation = sim
+    const clock = (t: number) => formatDuration(t)
+    for (const st of sim.steps) {
+      if (st.electronMol <= 0) continue
+      const node = m.tree.lines[st.line]
+      const main = sim.mainProduct
+      const snap = main ? st.compartments.find((c) => c.name === main.compartment) : undefined
+      const parts: string[] = []
+      if (snap?.main && main && main.formula !== 'H2' && main.formula !== 'Cl2') parts.push(`${fmt(snap.main.wtPercent)} wt% ${prettyFormula(snap.main.formula)} in ${snap.name}`)
+      if (st.product) parts.push(`CE ${fmt(st.product.efficiency * 100)} %`)
+      for (const c of st.compartments) parts.push(`pH ${c.ph.toFixed(1)} ${c.name}`)
+      if (Math.abs(st.temperatureK - m.temperatureK) > 0.5) parts.push(`${fmt(st.temperatureK - ZERO_CELSIUS)} °C`)
+      m.computed.push({
+        line: st.line,
+        span: node.span,
+        anchor: node.span.end,
+        key: 'step.sim',
+        label: `sim: ${parts.join(' · ')}`,
+        title: 'Simulated state at the end of this step',
+        working: [
+          `after ${clock(st.endTime)} of the run${st.product ? `; ${prettyFormula(st.product.formula)} formed in the step: ${fmt(st.product.mol, 4)} mol, current efficiency ${fmt(st.product.efficiency * 100, 3)} %` : ''}`,
+          ...st.compartments.map(
+            (c) =>
+              `${c.name}: ${fmt(c.volumeL * 1000, 4)} mL, ${fmt(c.massG, 4)} g, pH ${c.ph.toFixed(2)}` +
+              (c.main ? `, ${prettyFormula(c.main.formula)} ${fmt(c.main.wtPercent, 3)} wt% = ${fmt(c.main.molPerL, 3)} mol/L` : '') +
+              (Object.keys(c.solids).length ? `, solid: ${Object.entries(c.solids).map(([k, x]) => `${fmt(x, 3)} mol ${prettyFormula(k)}`).join(', ')}` : ''),
+          ),
+          `gases so far: ${Object.entries(st.gases).map(([g, x]) => `${fmt(x * this.litresPerMol(), 4)} L ${prettyFormula(g)}`).join(', ') || 'none'}`,
+          `temperature ${fmt(st.temperatureK - ZERO_CELSIUS, 3)} °C${m.handling.some((h) => h.type.text === 'cooling') ? ' (cooling declared: held)' : ''}`,
+          'simulation: ions share the current through the separator by |z|·c·λ; see the README for its assumptions',
+        ],
+      })
+    }
+    for (const ev of sim.events) {
+      const node = m.tree.lines[ev.line]
+      m.computed.push({
+        line: ev.line,
+        span: node.span,
+        anchor: node.span.end,
+        key: 'sim.event',
+        label: `⚑ ${clock(ev.time)}: ${ev.message}`,
+        title: 'Simulation event',
+        working: [`at ${clock(ev.time)} from the start: ${ev.message}`],
+      })
+    }
+  }
+
+  /** Compare planned and measured yields with the simulation: amounts, efficiency, targets. */
+  simulatedYields(): void {
+    const m = this.m
+    const sim = m.simulation
+    if (!sim?.mainProduct) return
+    const main = sim.mainProduct
+    const f = parseFormula(main.formula)
+    const formed = sim.steps.reduce((t, x) => t + (x.product?.mol ?? 0), 0)
+    const electrons = sim.steps.reduce((t, x) => t + x.electronMol, 0)
+    for (const y of m.yields) {
+      if (!sameSubstance(main.formula, y.formula.formula)) continue
+      const node = m.tree.lines[y.line]
+      const q = y.quantity
+      if (q.kind === 'mass-fraction' || q.kind === 'molarity') {
+        const target = m.targets.find((t) => t.line === y.line)!
+        const reached = sim.events.find((e) => e.kind === 'target-reached' && e.line >= 0 && e.message.includes(`${target.value} ${target.kind}`) && e.compartment === target.compartment)
+        const end = sim.final.find((c) => c.name === target.compartment)?.main
+        const endValue = end ? (target.kind === 'wt%' ? end.wtPercent : end.molPerL) : undefined
+        m.computed.push({
+          line: y.line,
+          span: node.span,
+          anchor: node.span.end,
+          key: 'expect.target',
+          label: reached ? `sim: reached after ${formatDuration(reached.time)}` : `sim: not reached${endValue !== undefined ? ` (ends at ${fmt(endValue)} ${target.kind})` : ''}`,
+          title: `Planned concentration of ${prettyFormula(main.formula)} (simulation)`,
+          working: [reached ? `the simulation reaches ${target.value} ${target.kind} after ${formatDuration(reached.time)}` : `the simulation ends at ${endValue !== undefined ? fmt(endValue, 4) : '?'} ${target.kind}`],
+        })
+        continue
+      }
+      if (y.mol === undefined || q.kind === 'volume') continue
+      const simCe = electrons > 0 ? ((formed * main.electrons) / electrons) * 100 : 0
+      const label = y.kind === 'expect' ? `sim: ${fmt((formed + y.initialMol) * f.molarMass)} g at CE ${fmt(simCe)} %` : `sim CE ${fmt(simCe)} %`
+      m.computed.push({
+        line: y.line,
+        span: node.span,
+        anchor: node.span.end,
+        key: y.kind === 'expect' ? 'expect.sim' : 'observe.sim',
+        label,
+        value: y.kind === 'expect' ? (formed + y.initialMol) * f.molarMass : electrons > 0 ? (formed * main.electrons) / electrons : 0,
+        unit: y.kind === 'expect' ? 'g' : '1',
+        title: `${prettyFormula(main.formula)} in the simulation`,
+        working: [
+          `simulated ${prettyFormula(main.formula)} formed: ${fmt(formed, 4)} mol = ${fmt(formed * f.molarMass, 4)} g` + (y.initialMol > 0 ? `, plus ${fmt(y.initialMol * f.molarMass, 4)} g charged` : ''),
+          `simulated current efficiency: ${fmt(formed, 4)} mol × ${main.electrons} ÷ ${fmt(electrons, 4)} mol e⁻ = ${fmt(electrons > 0 ? ((formed * main.electrons) / electrons) * 100 : 0, 3)} %`,
+        ],
+      })
+    }
+  }
+
   /** Run the chemistry engine; show each electrode's reaction and each step's products. */
   chemistry(): void {
     const m = this.m
@@ -1023,8 +1183,14 @@ class Evaluator {
     // Without a described cell, fall back to the usual reaction for the product.
     const fallback = cellKnown ? undefined : productReaction(f, this.saltsIn(compName))
     const gas = formed.length ? formed[0].gas : fallback?.ok ? fallback.reaction.gas : KNOWN_GASES.has(ff.tok.text)
-    const kinds: Kind[] = gas ? ['mass', 'amount', 'volume'] : ['mass', 'amount']
+    const kinds: Kind[] = gas ? ['mass', 'amount', 'volume'] : n.kind === 'expect' && compName ? ['mass', 'amount', 'mass-fraction', 'molarity'] : ['mass', 'amount']
     const q = this.quantity(n, n.quantity, `the ${n.kind === 'expect' ? 'planned' : 'measured'} amount of ${n.formula.text}`, kinds, 'non-negative')
+    if ((q.kind === 'mass-fraction' || q.kind === 'molarity') && q.number !== undefined && compName) {
+      // A planned concentration: the simulation reports when (and whether) it is reached.
+      this.m.targets.push({ line: n.line, formula: ff.tok.text, compartment: compName, kind: q.kind === 'mass-fraction' ? 'wt%' : 'mol/L', value: q.number })
+      this.m.yields.push({ line: n.line, kind: n.kind, formula: ff, quantity: q, initialMol: 0, ...(n.compartment ? { compartment: n.compartment } : {}) })
+      return
+    }
     const y: YieldFact = { line: n.line, kind: n.kind, formula: ff, quantity: q, initialMol: 0, ...(n.compartment ? { compartment: n.compartment } : {}) }
     this.m.yields.push(y)
     const M = f.molarMass

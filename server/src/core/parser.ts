@@ -140,8 +140,16 @@ function parseLine(raw: string, base: number, line: number, inCell: boolean): Li
         s.kw('and')
         s.ws1('a compartment')
         const b = s.ident('a compartment name')
-        const area = s.optionalArea()
-        return { kind: 'separator', ...k, type, between: [a, b], ...(area ? { area } : {}), inCell: childOfCell }
+        const opts = s.optionalClauses(['area', 'drag'])
+        return {
+          kind: 'separator',
+          ...k,
+          type,
+          between: [a, b],
+          ...(opts.area ? { area: opts.area } : {}),
+          ...(opts.drag ? { drag: opts.drag } : {}),
+          inCell: childOfCell,
+        }
       }
       case 'anode':
       case 'cathode': {
@@ -484,6 +492,33 @@ class Cursor {
   nextSpace(): number {
     const m = /[\s,:]/.exec(this.s.slice(this.pos))
     return m ? this.pos + m.index : this.s.length
+  }
+
+  /** `, KEY EXPR` clauses at the end of a line, each key at most once, in any order. */
+  optionalClauses(keys: readonly string[]): Record<string, Tok | undefined> {
+    const out: Record<string, Tok | undefined> = {}
+    this.ws()
+    if (this.pos >= this.s.length) return out
+    this.lit(',', `\`, ${keys[0]} ...\` or the end of the line`)
+    this.ws()
+    for (const part of this.splitTop(',', this.rest())) {
+      const m = /^([A-Za-z-]+)(\s+)(.+)$/s.exec(part.text)
+      const word = m ? m[1] : part.text.split(/\s/)[0]
+      const at = part.span.start - this.base
+      if (!m || !keys.includes(m[1])) {
+        const guess = closest(word, keys)
+        throw new LineError(
+          `expected ${keys.map((k) => `\`${k}\``).join(' or ')}, found \`${word}\``,
+          at,
+          at + word.length,
+          guess ? { start: at, end: at + word.length, newText: guess, title: `Change to \`${guess}\`` } : undefined,
+        )
+      }
+      if (out[m[1]]) throw new LineError(`\`${m[1]}\` is given twice`, at, at + m[1].length)
+      const start = part.span.start + m[1].length + m[2].length
+      out[m[1]] = { text: m[3], span: { start, end: start + m[3].length } }
+    }
+    return out
   }
 
   /** `, area EXPR` at the end of a cell line. */

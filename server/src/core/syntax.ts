@@ -60,7 +60,7 @@ export type LineNode =
   | (Base & { kind: 'cell' })
   | (Base & { kind: 'vessel'; material: Tok; inCell: boolean })
   | (Base & { kind: 'compartment'; name: Tok; volume: Expr; inCell: boolean })
-  | (Base & { kind: 'separator'; type: Tok; between: [Tok, Tok]; area?: Expr; inCell: boolean })
+  | (Base & { kind: 'separator'; type: Tok; between: [Tok, Tok]; area?: Expr; drag?: Expr; inCell: boolean })
   | (Base & { kind: 'electrode'; role: 'anode' | 'cathode'; material: Tok; compartment: Tok; area?: Expr; inCell: boolean })
   | (Base & { kind: 'charge'; compartment: Tok; items: ChargeItem[] })
   | (Base & { kind: 'step'; label: Tok; clauses: Clause[] })
