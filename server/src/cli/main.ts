@@ -7,6 +7,8 @@ import { annotate, diagnosticLines, jsonReport } from '../core/report'
 const USAGE = `usage:
   cellrun check [--format text|json] FILE...   report diagnostics; exit 1 when any is an error
   cellrun annotate FILE...                     print each line with its computed values
+Options:
+  --efficiency-floor PERCENT   report a simulated step efficiency below this (default 80)
   cellrun --help | --version
 
 Diagnostics print as FILE:LINE:COLUMN: error|warning|note: MESSAGE [CODE] (1-based).
@@ -28,10 +30,18 @@ export function run(argv: string[], out: (s: string) => void, err: (s: string) =
     return 2
   }
   let format = 'text'
+  let floor = 80
   const files: string[] = []
   for (let i = 0; i < args.length; i++) {
     const a = args[i]
-    if (a === '--format') format = args[++i] ?? ''
+    if (a === '--efficiency-floor' || a.startsWith('--efficiency-floor=')) {
+      const v = Number(a.includes('=') ? a.slice(a.indexOf('=') + 1) : args[++i])
+      if (!(v >= 0 && v <= 100)) {
+        err('cellrun: --efficiency-floor takes a percentage from 0 to 100')
+        return 2
+      }
+      floor = v
+    } else if (a === '--format') format = args[++i] ?? ''
     else if (a.startsWith('--format=')) format = a.slice('--format='.length)
     else if (a.startsWith('-')) {
       err(`cellrun: unknown option '${a}'`)
@@ -58,7 +68,7 @@ export function run(argv: string[], out: (s: string) => void, err: (s: string) =
       unreadable++
       continue
     }
-    const a = analyze(text)
+    const a = analyze(text, { efficiencyFloor: floor / 100 })
     errors += a.diagnostics.filter((d) => d.severity === 'error').length
     if (cmd === 'annotate') out(annotate(a, file))
     else if (format === 'json') reports.push(jsonReport(a, file))

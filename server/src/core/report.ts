@@ -35,6 +35,13 @@ export interface JsonReport {
   totals: { chargeC: number; chargeAh: number; electronMol: number; effectiveElectronMol: number; hours: number; energyWh?: number }
   conditions: { temperatureK: number; pressurePa: number; stated: { temperature: boolean; pressure: boolean } }
   constants: { faraday: number }
+  /** The simulated run: per-step state, events (with their 1-based step line) and the end state. */
+  simulation?: {
+    mainProduct?: { formula: string; compartment: string }
+    events: { kind: string; hours: number; line: number; compartment?: string; message: string }[]
+    steps: { line: number; hours: number; efficiency?: number; productMol?: number; temperatureC: number; compartments: { name: string; ph: number; volumeL: number; main?: { formula: string; wtPercent: number; molPerL: number } }[] }[]
+    gasesMol: Record<string, number>
+  }
 }
 
 export function jsonReport(a: Analysis, file: string): JsonReport {
@@ -82,6 +89,23 @@ export function jsonReport(a: Analysis, file: string): JsonReport {
     },
     conditions: { temperatureK: a.model.temperatureK, pressurePa: a.model.pressurePa, stated: a.model.conditionsStated },
     constants: { faraday: FARADAY },
+    ...(a.model.simulation ? { simulation: simulationReport(a) } : {}),
+  }
+}
+
+function simulationReport(a: Analysis): NonNullable<JsonReport['simulation']> {
+  const sim = a.model.simulation!
+  return {
+    ...(sim.mainProduct ? { mainProduct: { formula: sim.mainProduct.formula, compartment: sim.mainProduct.compartment } } : {}),
+    events: sim.events.map((e) => ({ kind: e.kind, hours: e.time / 3600, line: e.line + 1, ...(e.compartment ? { compartment: e.compartment } : {}), message: e.message })),
+    steps: sim.steps.map((st) => ({
+      line: st.line + 1,
+      hours: st.endTime / 3600,
+      ...(st.product ? { efficiency: st.product.efficiency, productMol: st.product.mol } : {}),
+      temperatureC: st.temperatureK - 273.15,
+      compartments: st.compartments.map((c) => ({ name: c.name, ph: c.ph, volumeL: c.volumeL, ...(c.main ? { main: { formula: c.main.formula, wtPercent: c.main.wtPercent, molPerL: c.main.molPerL } } : {}) })),
+    })),
+    gasesMol: { ...sim.gases },
   }
 }
 

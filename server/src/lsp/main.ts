@@ -3,35 +3,64 @@
 import { createConnection, ProposedFeatures, TextDocuments, TextDocumentSyncKind } from 'vscode-languageserver/node'
 import { TextDocument } from 'vscode-languageserver-textdocument'
 import { analyze, hoverAt, outline, type Analysis } from '../core/analyze'
+import type { ModelOptions } from '../core/model'
 import { toCodeActions, toDocumentSymbols, toInlayHints, toLspDiagnostic, toRange } from './convert'
 
 const connection = createConnection(ProposedFeatures.all)
 const documents = new TextDocuments(TextDocument)
 const cache = new Map<string, { version: number; analysis: Analysis }>()
+/** Analysis options from the `cellrun.*` settings (percent in the settings, fraction in the core). */
+let options: ModelOptions = {}
+let canReadSettings = false
+let canRefreshHints = false
 
 function analysisOf(doc: TextDocument): Analysis {
   const hit = cache.get(doc.uri)
   if (hit && hit.version === doc.version) return hit.analysis
-  const analysis = analyze(doc.getText())
+  const analysis = analyze(doc.getText(), options)
   cache.set(doc.uri, { version: doc.version, analysis })
   return analysis
 }
 
-connection.onInitialize(() => ({
-  capabilities: {
-    textDocumentSync: TextDocumentSyncKind.Incremental,
-    hoverProvider: true,
-    inlayHintProvider: true,
-    documentSymbolProvider: true,
-    codeActionProvider: { codeActionKinds: ['quickfix'] },
-  },
-  serverInfo: { name: 'cellrun-server', version: '0.1.0' },
-}))
+connection.onInitialize((params) => {
+  canReadSettings = !!params.capabilities.workspace?.configuration
+  canRefreshHints = !!params.capabilities.workspace?.inlayHint?.refreshSupport
+  return {
+    capabilities: {
+      textDocumentSync: TextDocumentSyncKind.Incremental,
+      hoverProvider: true,
+      inlayHintProvider: true,
+      documentSymbolProvider: true,
+      codeActionProvider: { codeActionKinds: ['quickfix'] },
+    },
+    serverInfo: { name: 'cellrun-server', version: '0.1.0' },
+  }
+})
 
-documents.onDidChangeContent(({ document }) => {
+/** Read the settings, and re-analyse the open documents when they change. */
+async function readSettings(): Promise<void> {
+  if (!canReadSettings) return
+  const s = (await connection.workspace.getConfiguration('cellrun')) as { simulation?: { efficiencyFloor?: number } } | null
+  const floor = s?.simulation?.efficiencyFloor
+  options = typeof floor === 'number' && floor >= 0 && floor <= 100 ? { efficiencyFloor: floor / 100 } : {}
+  cache.clear()
+  for (const doc of documents.all()) publish(doc)
+  if (canRefreshHints) void connection.languages.inlayHint.refresh()
+}
+
+connection.onInitialized(() => {
+  void readSettings()
+})
+connection.onDidChangeConfiguration(() => {
+  void readSettings()
+})
+
+function publish(document: TextDocument): void {
   const a = analysisOf(document)
   void connection.sendDiagnostics({ uri: document.uri, version: document.version, diagnostics: a.diagnostics.map((d) => toLspDiagnostic(a, d)) })
-})
+}
+
+documents.onDidChangeContent(({ document }) => publish(document))
 
 documents.onDidClose(({ document }) => {
   cache.delete(document.uri)
