@@ -979,6 +979,38 @@ class Evaluator {
         ],
       })
     }
+    // The run line: the end state and the overall current efficiency.
+    const run = m.tree.lines.find((x) => x.kind === 'run')
+    const main = sim.mainProduct
+    const electrons = sim.steps.reduce((t, x) => t + x.electronMol, 0)
+    if (run && main && electrons > 0) {
+      const formed = sim.steps.reduce((t, x) => t + (x.product?.mol ?? 0), 0)
+      const end = sim.final.find((c) => c.name === main.compartment)?.main
+      const overall = (formed * main.electrons) / electrons
+      const last = sim.steps[sim.steps.length - 1]
+      m.computed.push({
+        line: run.line,
+        span: run.span,
+        anchor: run.span.end,
+        key: 'run.sim',
+        label:
+          `sim end: ` +
+          [
+            ...(end && main.formula !== 'H2' && main.formula !== 'Cl2' ? [`${fmt(end.wtPercent)} wt% ${prettyFormula(end.formula)} in ${main.compartment}`] : []),
+            `CE ${fmt(overall * 100)} % overall`,
+            ...(sim.events.length ? [`${sim.events.length} event${sim.events.length === 1 ? '' : 's'}`] : []),
+          ].join(' · '),
+        value: overall,
+        unit: '1',
+        title: 'The simulated run',
+        working: [
+          `${prettyFormula(main.formula)} formed: ${fmt(formed, 4)} mol over ${fmt(electrons, 4)} mol e⁻ → overall current efficiency ${fmt(overall * 100, 3)} %`,
+          `gases: ${Object.entries(sim.gases).map(([g, x]) => `${fmt(x * this.litresPerMol(), 4)} L ${prettyFormula(g)}`).join(', ') || 'none'}`,
+          ...(last ? [`end temperature ${fmt(last.temperatureK - ZERO_CELSIUS, 3)} °C`] : []),
+          ...sim.events.map((e) => `⚑ ${formatDuration(e.time)}: ${e.message}`),
+        ],
+      })
+    }
     for (const ev of sim.events) {
       const node = m.tree.lines[ev.line]
       m.computed.push({
