@@ -125,7 +125,7 @@ export interface SimInput {
   efficiencyFloor: number
 }
 
-export type EventKind = 'feed-exhausted' | 'saturated' | 'target-reached' | 'ph' | 'efficiency' | 'temperature'
+export type EventKind = 'feed-exhausted' | 'saturated' | 'target-reached' | 'ph' | 'efficiency' | 'temperature' | 'dry'
 
 export interface SimEvent {
   kind: EventKind
@@ -165,6 +165,7 @@ export interface StepResult {
 export interface SeriesPoint {
   time: number
   temperatureK: number
+  /** Current efficiency for the main product from the start of the run to this point. */
   efficiency: number
   gases: Record<string, number>
   compartments: { name: string; ph: number; wtPercent?: number; molPerL?: number }[]
@@ -213,6 +214,8 @@ function ionKey(formula: string, charge: number): string {
 class Solution {
   amt = new Map<string, number>()
   solids = new Map<string, number>()
+  /** Water at the start, mol: the drag leaves at least a tenth of it. */
+  initialWater = 0
   constructor(readonly name: string) {}
 
   get(k: string): number {
@@ -325,9 +328,10 @@ function lambda(k: string): number {
 }
 
 /** Load a compartment: water and the ions (or molecules) of what was charged. */
-function load(c: SimCompartmentInput): Solution {
+function load(c: SimCompartmentInput, gases: Record<string, number>): Solution {
   const s = new Solution(c.name)
   s.add(WATER, c.waterG / M_WATER)
+  s.initialWater = c.waterG / M_WATER
   for (const x of c.solutes) {
     const f = parseFormula(x.formula)
     const i = ionsOf(f)
@@ -336,7 +340,8 @@ function load(c: SimCompartmentInput): Solution {
       s.add(ionKey(i.anion, i.anionCharge), x.mol * i.anionCount)
     } else if (f.ok) s.add(x.formula, x.mol)
   }
-  equilibrate(s, 0, 298.15)
+  // What was charged reacts at once (acid poured onto carbonate gives off its CO₂ before the run).
+  equilibrate(s, 0, 298.15, gases)
   return s
 }
 
@@ -402,11 +407,20 @@ function precipitate(s: Solution, T: number): string[] {
   let water: number | undefined
   for (const x of salts()) {
     const present = Math.min(s.get(x.cat) / x.nc, s.get(x.an) / x.na)
-    if (!(present > 0)) continue
+    if (!(present > 0) && !(s.solids.get(x.key) ?? 0)) continue
     const sol = solubilityAt(x.key, T - 273.15)
     if (!sol || sol.extrapolated) continue
     water ??= s.waterG()
     const max = (sol.gPer100gWater * water) / 100 / x.M
+    const solid = s.solids.get(x.key) ?? 0
+    if (solid > 0 && present < max) {
+      // Crystals dissolve again as far as the solution takes them.
+      const back = Math.min(solid, max - present)
+      s.add(x.cat, back * x.nc)
+      s.add(x.an, back * x.na)
+      s.solids.set(x.key, solid - back)
+      continue
+    }
     if (present > max * (1 + 1e-9)) {
       const n = present - max
       s.add(x.cat, -n * x.nc)
@@ -430,12 +444,13 @@ function mainProductOf(input: SimInput, a: Solution, c: Solution): { formula: st
     const cat = c.mainSalt()?.formula.match(/^[A-Z][a-z]?/)?.[0] ?? 'Na'
     return { formula: `${cat}ClO`, compartment: c.name, electrons: 2, measure: (st) => st.sol(c.name).get('ClO^-') + 3 * st.sol(c.name).get('ClO3^-') }
   }
-  if (sep === 'cation-exchange' || sep === 'diaphragm') {
+  const alkalineFeed = a.get('OH^-') > 0
+  if (sep === 'cation-exchange' || (sep === 'diaphragm' && !alkalineFeed)) {
     if (cathode.kind === 'hydrogen') {
       const feedCation = [...a.amt].filter(([k, v]) => v > 0 && species(k).charge > 0 && k !== 'H^+').sort((x, y) => y[1] - x[1])[0]
       const el = feedCation ? feedCation[0].replace(/\^.*$/, '') : 'Na'
       const z = feedCation ? species(feedCation[0]).charge : 1
-      return { formula: z === 1 ? `${el}OH` : `${el}(OH)${z}`, compartment: c.name, electrons: z, measure: (st) => st.sol(c.name).get('OH^-') / z }
+      return { formula: z === 1 ? `${el}OH` : `${el}(OH)${z}`, compartment: c.name, electrons: z, measure: (st) => (st.sol(c.name).get('OH^-') - (st.mixedIn['OH^-'] ?? 0)) / z }
     }
   }
   if (sep === 'anion-exchange') {
@@ -456,15 +471,18 @@ interface State {
   gases: Record<string, number>
   deposits: Record<string, number>
   dissolved: Record<string, number>
+  /** Net moles of each ion moved into the cathode side by diaphragm mixing (not made by the current). */
+  mixedIn: Record<string, number>
   T: number
 }
 
 export function simulate(input: SimInput): SimResult {
-  const sols = input.compartments.map(load)
+  const gases: Record<string, number> = {}
+  const sols = input.compartments.map((x) => load(x, gases))
   const byName = new Map(sols.map((s) => [s.name, s]))
   const a = byName.get(input.anode.compartment)!
   const c = byName.get(input.cathode.compartment)!
-  const state: State = { sols, sol: (n) => byName.get(n)!, gases: {}, deposits: {}, dissolved: {}, T: input.temperatureK }
+  const state: State = { sols, sol: (n) => byName.get(n)!, gases, deposits: {}, dissolved: {}, mixedIn: {}, T: input.temperatureK }
   const result: SimResult = { steps: [], events: [], series: [], gases: state.gases, deposits: state.deposits, dissolved: state.dissolved, final: [], iterations: 0 }
   const main = mainProductOf(input, a, c)
   if (main) result.mainProduct = { formula: main.formula, compartment: main.compartment, electrons: main.electrons }
@@ -485,6 +503,9 @@ export function simulate(input: SimInput): SimResult {
   }
   const lastPh = new Map(sols.map((s) => [s.name, s.ph()]))
   let time = 0
+  let runElectrons = 0
+  const runStart = main ? main.measure(state) : 0
+  const running = () => (main && runElectrons > 0 ? ((main.measure(state) - runStart) * main.electrons) / runElectrons : 0)
   const totalSeconds = input.steps.reduce((t, s) => t + (s.seconds ?? 0), 0)
   const seriesEvery = Math.max(totalSeconds / 200, 1)
   let nextSeries = 0
@@ -503,7 +524,7 @@ export function simulate(input: SimInput): SimResult {
         result.iterations++
         // Adaptive: no reactant of the moment changes by more than 2 % in one step.
         const scale = reactingScale(input, a, c, depIon, total * 1e-3)
-        let dne = Math.max(floor, Math.min(total / 4, 0.02 * scale))
+        let dne = Math.max(floor, Math.min(total / 50, 0.02 * scale))
         let dt = (dne * FARADAY) / I
         if (elapsed + dt > seconds) {
           dt = seconds - elapsed
@@ -512,9 +533,15 @@ export function simulate(input: SimInput): SimResult {
         elapsed += dt
         time += dt
         stepElectrons += dne
-        electrodeReactions(input, state, a, c, dne, step.efficiency)
-        if (divided) transport(sep!, a, c, dne, drag)
-        if (divided && sep === 'diaphragm') mix(a, c, dt)
+        // The separator's share first, so that hydroxide leaking back meets this step's chlorine.
+        if (divided && transport(sep!, a, c, dne, drag)) {
+          event('dry', 'dry', time, step.line, `${a.name} has lost nine tenths of its water to the drag through the separator: add water or stop`, a.name)
+        }
+        // Through a cation-exchange membrane the chlorine side's losses come from the hydroxide
+        // leaking back (the transport above), so the stated efficiency is not applied a second time.
+        electrodeReactions(input, state, a, c, dne, input.anode.kind === 'chlorine' && divided && sep === 'cation-exchange' ? 1 : step.efficiency)
+        runElectrons += dne
+        if (divided && sep === 'diaphragm') mix(a, c, dt, state.mixedIn)
         for (const s of sols) {
           equilibrate(s, dt, state.T, state.gases)
           for (const salt of precipitate(s, state.T)) {
@@ -553,7 +580,7 @@ export function simulate(input: SimInput): SimResult {
           if (v >= t.value) event('target-reached', `target:${t.line}`, time, step.line, `${prettyFormula(t.formula)} reaches ${t.value} ${t.kind} in ${t.compartment}`, t.compartment)
         }
         if (time >= nextSeries) {
-          result.series.push(point(time, state, main, sols))
+          result.series.push(point(time, state, main, sols, running()))
           nextSeries = time + seriesEvery
         }
       }
@@ -573,16 +600,16 @@ export function simulate(input: SimInput): SimResult {
       temperatureK: state.T,
     })
   }
-  result.series.push(point(time, state, main, sols))
+  result.series.push(point(time, state, main, sols, running()))
   result.final = sols.map((s) => s.snapshot(main && s.name === main.compartment ? main.formula : undefined))
   return result
 }
 
-function point(time: number, state: State, main: ReturnType<typeof mainProductOf>, sols: Solution[]): SeriesPoint {
+function point(time: number, state: State, main: ReturnType<typeof mainProductOf>, sols: Solution[], efficiency: number): SeriesPoint {
   return {
     time,
     temperatureK: state.T,
-    efficiency: NaN,
+    efficiency,
     gases: { ...state.gases },
     compartments: sols.map((s) => {
       const p = main && s.name === main.compartment && main.formula !== 'H2' && main.formula !== 'Cl2' ? s.productOf(main.formula) : undefined
@@ -669,7 +696,7 @@ function electrodeReactions(input: SimInput, st: State, a: Solution, c: Solution
 }
 
 /** The separator carries dne of charge: ions share it by |z|·c·λ; cations drag water. */
-function transport(type: 'cation-exchange' | 'anion-exchange' | 'diaphragm', a: Solution, c: Solution, dne: number, drag: number): void {
+function transport(type: 'cation-exchange' | 'anion-exchange' | 'diaphragm', a: Solution, c: Solution, dne: number, drag: number): boolean {
   const Va = a.volumeL()
   const Vc = c.volumeL()
   let left = dne
@@ -700,7 +727,7 @@ function transport(type: 'cation-exchange' | 'anion-exchange' | 'diaphragm', a: 
     }
   }
   const sum = carriers.reduce((t, x) => t + x.k, 0)
-  if (sum <= 0 || left <= 0) return
+  if (sum <= 0 || left <= 0) return false
   let cationEq = 0
   for (const x of carriers) {
     const eq = Math.min((left * x.k) / sum, x.from.get(x.key) * x.z)
@@ -709,13 +736,15 @@ function transport(type: 'cation-exchange' | 'anion-exchange' | 'diaphragm', a: 
     if (x.from === a) cationEq += eq
   }
   // Electro-osmotic drag: water moves with the cations.
-  const water = Math.min(drag * cationEq, a.get(WATER))
+  const wanted = drag * cationEq
+  const water = Math.max(0, Math.min(wanted, a.get(WATER) - 0.1 * a.initialWater))
   a.add(WATER, -water)
   c.add(WATER, water)
+  return water < wanted - 1e-12
 }
 
 /** A porous diaphragm lets the two solutions mix slowly: ions move down their concentration difference, in neutral pairs of charge. */
-function mix(a: Solution, c: Solution, dt: number): void {
+function mix(a: Solution, c: Solution, dt: number, mixedIn: Record<string, number>): void {
   const f = 1 - Math.exp(-DIAPHRAGM_MIXING_PER_S * dt)
   const Va = a.volumeL()
   const Vc = c.volumeL()
@@ -743,10 +772,12 @@ function mix(a: Solution, c: Solution, dt: number): void {
       const x = Math.min(m, a.get(k))
       a.add(k, -x)
       c.add(k, x)
+      mixedIn[k] = (mixedIn[k] ?? 0) + x
     } else if (m < 0) {
       const x = Math.min(-m, c.get(k))
       c.add(k, -x)
       a.add(k, x)
+      mixedIn[k] = (mixedIn[k] ?? 0) - x
     }
   }
 }
