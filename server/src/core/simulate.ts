@@ -442,6 +442,10 @@ function mainProductOf(input: SimInput, a: Solution, c: Solution): { formula: st
   const sep = input.separator?.type
   if (anode.kind === 'chlorine' && !sep) {
     const cat = c.mainSalt()?.formula.match(/^[A-Z][a-z]?/)?.[0] ?? 'Na'
+    // Warm, the hypochlorite goes on to chlorate (6 e⁻ per ClO₃⁻); cool, it stays (2 e⁻ per ClO⁻).
+    if (input.temperatureK - 273.15 >= CHLORATE_MIN_CELSIUS) {
+      return { formula: `${cat}ClO3`, compartment: c.name, electrons: 6, measure: (st) => st.sol(c.name).get('ClO3^-') + st.sol(c.name).get('ClO^-') / 3 }
+    }
     return { formula: `${cat}ClO`, compartment: c.name, electrons: 2, measure: (st) => st.sol(c.name).get('ClO^-') + 3 * st.sol(c.name).get('ClO3^-') }
   }
   const alkalineFeed = a.get('OH^-') > 0
@@ -553,6 +557,8 @@ export function simulate(input: SimInput): SimResult {
           const mass = sols.reduce((m, s) => m + s.massG(), 0)
           if (mass > 0) state.T += ((step.voltageV - input.thermoneutralV) * dne * FARADAY) / (mass * HEAT_CAPACITY)
           if (state.T - 273.15 > 95) event('temperature', 'boil', time, step.line, `the contents pass 95 °C without cooling: the cell would boil`)
+          // Boiling takes up the heat from there on (at about 1 atm; the water lost is not counted).
+          state.T = Math.min(state.T, 373.15)
         }
         // Events.
         if (feedCations > 0 && sumWhere(a, (k) => species(k).charge > 0 && k !== 'H^+') < 0.01 * feedCations) {
