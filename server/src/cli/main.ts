@@ -2,13 +2,17 @@
 // A thin layer over the same analysis core as the language server.
 import { readFileSync } from 'node:fs'
 import { analyze } from '../core/analyze'
+import type { Severity } from '../core/diagnostics'
 import { annotate, diagnosticLines, jsonReport } from '../core/report'
+import { RULES } from '../rules'
 
 const USAGE = `usage:
   cellrun check [--format text|json] FILE...   report diagnostics; exit 1 when any is an error
   cellrun annotate FILE...                     print each line with its computed values
+  cellrun explain [CODE]                       a rule's full text; without CODE, the list of rules
 Options:
   --efficiency-floor PERCENT   report a simulated step efficiency below this (default 80)
+  --rule CODE=SEVERITY         error | warning | information | off, for one rule (repeatable)
   cellrun --help | --version
 
 Diagnostics print as FILE:LINE:COLUMN: error|warning|note: MESSAGE [CODE] (1-based).
@@ -25,12 +29,14 @@ export function run(argv: string[], out: (s: string) => void, err: (s: string) =
     out('cellrun 0.1.0')
     return 0
   }
+  if (cmd === 'explain') return explain(args[0], out, err)
   if (cmd !== 'check' && cmd !== 'annotate') {
     err(`cellrun: unknown command '${cmd}'\n${USAGE}`)
     return 2
   }
   let format = 'text'
   let floor = 80
+  const severities: Record<string, Severity | 'off'> = {}
   const files: string[] = []
   for (let i = 0; i < args.length; i++) {
     const a = args[i]
@@ -41,6 +47,14 @@ export function run(argv: string[], out: (s: string) => void, err: (s: string) =
         return 2
       }
       floor = v
+    } else if (a === '--rule' || a.startsWith('--rule=')) {
+      const v = a.includes('=') && a.startsWith('--rule=') ? a.slice('--rule='.length) : args[++i] ?? ''
+      const m = /^([a-z0-9-]+)=(error|warning|information|off)$/.exec(v)
+      if (!m || !RULES.some((r) => r.code === m[1])) {
+        err(`cellrun: --rule takes CODE=error|warning|information|off with a known rule code (see 'cellrun explain')`)
+        return 2
+      }
+      severities[m[1]] = m[2] as Severity | 'off'
     } else if (a === '--format') format = args[++i] ?? ''
     else if (a.startsWith('--format=')) format = a.slice('--format='.length)
     else if (a.startsWith('-')) {
@@ -68,7 +82,7 @@ export function run(argv: string[], out: (s: string) => void, err: (s: string) =
       unreadable++
       continue
     }
-    const a = analyze(text, { efficiencyFloor: floor / 100 })
+    const a = analyze(text, { efficiencyFloor: floor / 100, severities })
     errors += a.diagnostics.filter((d) => d.severity === 'error').length
     if (cmd === 'annotate') out(annotate(a, file))
     else if (format === 'json') reports.push(jsonReport(a, file))
@@ -79,7 +93,34 @@ export function run(argv: string[], out: (s: string) => void, err: (s: string) =
   return cmd === 'check' && errors > 0 ? 1 : 0
 }
 
+/** `cellrun explain CODE`: a rule's full text; without a code, the list. */
+function explain(code: string | undefined, out: (s: string) => void, err: (s: string) => void): number {
+  if (!code) {
+    for (const r of RULES) out(`${r.code.padEnd(24)} ${r.severity.padEnd(12)} ${r.summary}`)
+    return 0
+  }
+  const r = RULES.find((x) => x.code === code)
+  if (!r) {
+    err(`cellrun: no rule '${code}'; 'cellrun explain' lists them`)
+    return 2
+  }
+  out(`${r.code} (${r.category === 'safety' ? 'hazard rule' : 'consistency rule'}, default ${r.severity})`)
+  out('')
+  out(r.summary)
+  if (r.details) out(`\n${r.details}`)
+  if (r.caution) out(`\nCaution: ${r.caution}`)
+  if (r.source) out(`\nSource: ${r.source}`)
+  out(`\nTo accept a finding on a line, say why in its comment: # noted ${r.code}: REASON`)
+  out(`To change its severity: setting cellrun.rules {"${r.code}": "warning"}, or --rule ${r.code}=warning`)
+  return 0
+}
+
 if (require.main === module) {
+  // `cellrun explain | head` closes the pipe early: that is not an error.
+  process.stdout.on('error', (e: NodeJS.ErrnoException) => {
+    if (e.code === 'EPIPE') process.exit(0)
+    throw e
+  })
   process.exitCode = run(
     process.argv.slice(2),
     (s) => process.stdout.write(s + '\n'),

@@ -1,6 +1,7 @@
 // The entry point of the analysis core: text in, plain data out (syntax tree, model, computed
 // values, diagnostics, outline, hovers). No editor or LSP types are used anywhere in the core.
 import { RULES } from '../rules'
+import { NOTED_ANY } from '../rules/noted'
 import type { Diagnostic } from './diagnostics'
 import { prettyFormula } from './formula'
 import { buildModel, type Computed, type Model, type ModelOptions } from './model'
@@ -37,9 +38,45 @@ export function analyze(text: string, options: ModelOptions = {}): Analysis {
       })
     }
   }
-  diagnostics.sort((a, b) => a.span.start - b.span.start || a.span.end - b.span.end || a.code.localeCompare(b.code))
-  return { text, index, tree, model, computed: model.computed, diagnostics }
+  const settled = applyNotesAndSeverities(diagnostics, tree, text, index, options)
+  settled.sort((a, b) => a.span.start - b.span.start || a.span.end - b.span.end || a.code.localeCompare(b.code))
+  return { text, index, tree, model, computed: model.computed, diagnostics: settled }
 }
+
+
+/**
+ * Each rule's caution travels with its findings; a finding noted on its line with a reason becomes
+ * information (its caution still shown); settings change a rule's severity or turn it off.
+ */
+function applyNotesAndSeverities(diagnostics: Diagnostic[], tree: SyntaxTree, text: string, index: LineIndex, options: ModelOptions): Diagnostic[] {
+  const notes = new Map<number, Map<string, string>>()
+  for (const n of tree.lines) {
+    if (!n.comment) continue
+    const m = NOTED_ANY.exec(text.slice(n.comment.start, n.comment.end).trim())
+    if (m && m[2]?.trim()) {
+      if (!notes.has(n.line)) notes.set(n.line, new Map())
+      notes.get(n.line)!.set(m[1], m[2].trim())
+    }
+  }
+  const byCode = new Map(RULES.map((r) => [r.code, r]))
+  const out: Diagnostic[] = []
+  for (const d of diagnostics) {
+    const rule = byCode.get(d.code)
+    const setting = options.severities?.[d.code]
+    if (setting === 'off') continue
+    const withCaution: Diagnostic = { ...d, ...(rule?.caution && !d.caution ? { caution: rule.caution } : {}) }
+    if (setting) withCaution.severity = setting
+    const reason = notes.get(index.lineOf(d.span.start))?.get(d.code)
+    if (reason) {
+      withCaution.noted = reason
+      withCaution.severity = 'information'
+      withCaution.message = `noted (${reason}): ${d.message}`
+    }
+    out.push(withCaution)
+  }
+  return out
+}
+
 
 export interface Hover {
   span: Span

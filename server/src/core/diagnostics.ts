@@ -20,6 +20,10 @@ export interface Diagnostic {
   message: string
   span: Span
   fixes: Fix[]
+  /** For hazard rules: the usual precaution (always shown, also when the finding is noted). */
+  caution?: string
+  /** Set when a `# noted CODE: reason` comment on the line acknowledges the finding. */
+  noted?: string
 }
 
 export function fix(title: string, span: Span, newText: string): Fix {

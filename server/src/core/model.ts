@@ -9,6 +9,7 @@ import { cellVoltages, type CellVoltages } from './voltage'
 import { simulate, type SimResult, type SimTarget } from './simulate'
 import { DENSITY_20C, massFractionFromMassConc, massFractionFromMolarity, solutionDensity } from './data/density'
 import { SOLUBILITY, solubilityAt } from './data/solubility'
+import type { Severity } from './diagnostics'
 import { parseFormula, prettyFormula, type Formula } from './formula'
 import type { Span } from './positions'
 import type { ChargeItem, LineNode, SyntaxTree, Tok } from './syntax'
@@ -256,6 +257,8 @@ const MEASURING_CELSIUS = 20
 export interface ModelOptions {
   /** Report a step whose simulated current efficiency falls below this fraction (default 0.8). */
   efficiencyFloor?: number
+  /** Severity per rule code, overriding the rule's default; 'off' drops its findings. */
+  severities?: Readonly<Record<string, Severity | 'off'>>
 }
 
 export function buildModel(tree: SyntaxTree, options: ModelOptions = {}): Model {

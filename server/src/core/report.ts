@@ -11,11 +11,12 @@ export const SEVERITY_WORD: Record<Diagnostic['severity'], string> = {
   hint: 'note',
 }
 
-/** GNU-style lines: `file:line:col: error: message [code]` (1-based line and column). */
+/** GNU-style lines: `file:line:col: error: message [code]` (1-based), a caution as a `note:` line after it. */
 export function diagnosticLines(a: Analysis, file: string): string[] {
-  return a.diagnostics.map((d) => {
+  return a.diagnostics.flatMap((d) => {
     const p = a.index.humanAt(d.span.start)
-    return `${file}:${p.line}:${p.column}: ${SEVERITY_WORD[d.severity]}: ${d.message} [${d.code}]`
+    const at = `${file}:${p.line}:${p.column}`
+    return [`${at}: ${SEVERITY_WORD[d.severity]}: ${d.message} [${d.code}]`, ...(d.caution ? [`${at}: note: caution: ${d.caution}`] : [])]
   })
 }
 
@@ -29,6 +30,8 @@ export interface JsonReport {
     severity: Diagnostic['severity']
     code: string
     message: string
+    caution?: string
+    noted?: string
     fixes: { title: string; edits: { line: number; column: number; endLine: number; endColumn: number; newText: string }[] }[]
   }[]
   computed: { line: number; key: string; label: string; value?: number; unit?: string; title: string; working: string[] }[]
@@ -60,6 +63,8 @@ export function jsonReport(a: Analysis, file: string): JsonReport {
         severity: d.severity,
         code: d.code,
         message: d.message,
+        ...(d.caution ? { caution: d.caution } : {}),
+        ...(d.noted ? { noted: d.noted } : {}),
         fixes: d.fixes.map((f) => ({
           title: f.title,
           edits: f.edits.map((x) => {
@@ -122,6 +127,7 @@ export function annotate(a: Analysis, file: string): string {
     for (const d of a.diagnostics) {
       if (a.index.lineOf(d.span.start) !== line) continue
       out.push(`${pad} |     !! ${SEVERITY_WORD[d.severity]} [${d.code}] ${d.message}`)
+      if (d.caution) out.push(`${pad} |        caution: ${d.caution}`)
     }
   }
   const t = a.model.totals

@@ -27,7 +27,13 @@ const SEVERITY: Record<Severity, DiagnosticSeverity> = {
 }
 
 export function toLspDiagnostic(a: Analysis, d: Diagnostic): LspDiagnostic {
-  return { range: toRange(a.index, d.span), severity: SEVERITY[d.severity], code: d.code, source: 'cellrun', message: d.message }
+  return {
+    range: toRange(a.index, d.span),
+    severity: SEVERITY[d.severity],
+    code: d.code,
+    source: 'cellrun',
+    message: d.caution ? `${d.message}\nCaution: ${d.caution}` : d.message,
+  }
 }
 
 export function toInlayHints(a: Analysis, range?: Range): InlayHint[] {

@@ -4,6 +4,7 @@ import { createConnection, ProposedFeatures, TextDocuments, TextDocumentSyncKind
 import { TextDocument } from 'vscode-languageserver-textdocument'
 import { analyze, hoverAt, outline, type Analysis } from '../core/analyze'
 import type { ModelOptions } from '../core/model'
+import type { Severity } from '../core/diagnostics'
 import { toCodeActions, toDocumentSymbols, toInlayHints, toLspDiagnostic, toRange } from './convert'
 
 const connection = createConnection(ProposedFeatures.all)
@@ -40,9 +41,13 @@ connection.onInitialize((params) => {
 /** Read the settings, and re-analyse the open documents when they change. */
 async function readSettings(): Promise<void> {
   if (!canReadSettings) return
-  const s = (await connection.workspace.getConfiguration('cellrun')) as { simulation?: { efficiencyFloor?: number } } | null
+  const s = (await connection.workspace.getConfiguration('cellrun')) as { simulation?: { efficiencyFloor?: number }; rules?: Record<string, string> } | null
   const floor = s?.simulation?.efficiencyFloor
-  options = typeof floor === 'number' && floor >= 0 && floor <= 100 ? { efficiencyFloor: floor / 100 } : {}
+  const severities: Record<string, Severity | 'off'> = {}
+  for (const [code, v] of Object.entries(s?.rules ?? {})) {
+    if (v === 'error' || v === 'warning' || v === 'information' || v === 'off') severities[code] = v
+  }
+  options = { ...(typeof floor === 'number' && floor >= 0 && floor <= 100 ? { efficiencyFloor: floor / 100 } : {}), severities }
   cache.clear()
   for (const doc of documents.all()) publish(doc)
   if (canRefreshHints) void connection.languages.inlayHint.refresh()

@@ -15,6 +15,8 @@ import { outsideCell } from './outside-cell'
 import { overfilled } from './overfilled'
 import { productReaction } from './product-reaction'
 import type { Rule } from './rule'
+import { notedReason, setKnownCodes } from './noted-reason'
+import { SAFETY_RULES } from './safety'
 import { shadowsUnit } from './shadows-unit'
 import { stepIncomplete } from './step-incomplete'
 import { syntax } from './syntax'
@@ -52,6 +54,10 @@ export const RULES: readonly Rule[] = [
   belowCharged,
   efficiencyOver100,
   belowReversible,
+  notedReason,
+  ...SAFETY_RULES,
 ]
+
+setKnownCodes(RULES.map((r) => r.code))
 
 export type { Rule, RuleContext } from './rule'

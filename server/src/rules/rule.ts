@@ -16,5 +16,13 @@ export interface Rule {
   severity: Severity
   /** One line on what the rule catches. */
   summary: string
+  /** Hazard rules: the usual precaution, deferring to local codes, safety data sheets and licensed practice. */
+  caution?: string
+  /** Where the rule's figures or reasoning come from: a published source, or "common practice, no source". */
+  source?: string
+  /** Longer explanation for `cellrun explain CODE`: why it matters, what to do. */
+  details?: string
+  /** 'safety' for hazard rules, else a consistency rule. */
+  category?: 'safety' | 'consistency'
   check(ctx: RuleContext): Diagnostic[]
 }
