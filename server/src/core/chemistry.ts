@@ -113,6 +113,11 @@ export function saltIons(f: Formula): SaltIons | undefined {
     const rest = new Map(counts)
     for (const [el, n] of per) rest.set(el, (rest.get(el) ?? 0) - n * k)
     const left = [...rest].filter(([, v]) => v !== 0)
+    // Ammonium salts: what is left is n N with 4n H, the NH4⁺ cation.
+    const nN = rest.get('N') ?? 0
+    if (left.length === 2 && nN > 0 && rest.get('H') === 4 * nN && k * -anion.charge === nN) {
+      return { cation: 'NH4', cationCount: nN, cationCharge: 1, anion: anion.name, anionCount: k, anionCharge: anion.charge }
+    }
     if (left.length !== 1 || left[0][1] <= 0) continue
     const [cation, cationCount] = left[0]
     if (NON_METALS.has(cation) || !(cation in ATOMIC_WEIGHTS)) continue

@@ -36,7 +36,7 @@ const SOLUBLE_ANODES: Record<string, number> = { Cu: 2, Ni: 2, Zn: 2, Ag: 1, Sn:
 /** Anode materials made of iron (steels). */
 const IRON_MATERIALS = /^(iron|steel|mild-steel|carbon-steel|cast-iron)/i
 /** Stainless steels: passive; they evolve oxygen, with transpassive dissolution that releases chromate. */
-const STAINLESS = /^(stainless|stainless-steel|ss-?\d*|aisi-?\d+|\d{3}l?-stainless|\d{3}l?)$/i
+const STAINLESS = /\bstainless\b|^(ss|sus)[- ]?\d{3}l?\b|^aisi[- ]?[34]\d\dl?\b|^3[01]\dl?\b/i
 /** Metals passive as anodes in alkaline solution (they evolve oxygen there). */
 const PASSIVE_IN_ALKALI = new Set(['Ni', 'Fe', 'Co'])
 /** Lead anodes form PbO2 and evolve oxygen in sulfate/sulfuric acid (electrowinning practice). */
@@ -504,9 +504,12 @@ function bookkeep(input: EngineInput, r: EngineResult, full: boolean): Book {
       // chlorine meets the hydroxide as hypochlorite; protons left over make acid with the anion
       // present (electrowinning regenerates its sulfuric acid).
       const base = hydroxide + protonsUsed - protons
-      if (chlorine > 0 && base > 0) {
+      // Hypochlorite needs hydroxide itself, in a solution with no free acid left.
+      const freeBase = hydroxide - protons
+      const acidLeft = (cIons.cations.get('H')?.mol ?? 0) - protonsUsed
+      if (chlorine > 0 && freeBase > 0 && acidLeft <= 0) {
         const cat = crossing(cIons)
-        const hypo = Math.min(chlorine, base / 2)
+        const hypo = Math.min(chlorine, freeBase / 2)
         const name = cat ? `${cat[0]}ClO` : 'ClO^-'
         put({ formula: name, electrons: 2, compartment: c, origin: 'follow-on', gas: false, equation: 'Cl₂ + 2 OH⁻ → ClO⁻ + Cl⁻ + H₂O', reason: 'in one compartment the chlorine meets the hydroxide made at the cathode' }, hypo)
         chlorine -= hypo

@@ -16,7 +16,7 @@ export function diagnosticLines(a: Analysis, file: string): string[] {
   return a.diagnostics.flatMap((d) => {
     const p = a.index.humanAt(d.span.start)
     const at = `${file}:${p.line}:${p.column}`
-    return [`${at}: ${SEVERITY_WORD[d.severity]}: ${d.message} [${d.code}]`, ...(d.caution ? [`${at}: note: caution: ${d.caution}`] : [])]
+    return [`${at}: ${SEVERITY_WORD[d.severity]}: ${d.message} [${d.code}]`, ...(d.caution ? [`${at}: note: caution: ${d.caution} [${d.code}]`] : [])]
   })
 }
 
