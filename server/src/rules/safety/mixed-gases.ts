@@ -15,7 +15,7 @@ export const mixedGases: Rule = {
   summary: 'Hydrogen and oxygen or chlorine come off into one headspace (no separator, or a porous diaphragm).',
   details:
     'Hydrogen mixed with oxygen or chlorine is explosive over a wide range of compositions and needs very little energy to ignite; hydrogen-chlorine mixtures can be set off even by light. ' +
-    'An undivided cell, a separator of kind `none` or a missing separator puts both gases in one headspace (an error); a porous diaphragm lets gas cross and the headspaces are often shared (a warning). ' +
+    'An undivided cell, a separator of kind `none` or a missing separator puts both gases in one headspace; a porous diaphragm lets gas cross and the headspaces are often shared. Undivided cells are common (plating, electrowinning, chlorate), so this is a warning: what makes them safe is the ventilation and the purge, which the protocol should state. ' +
     'Divide the cell with a membrane and keep the anode and cathode off-gases apart, each led away on its own.',
   source: 'gas volumes and the hydrogen share: ideal gas at the run conditions from the engine totals (hand arithmetic: water electrolysis gives 2 H2 : 1 O2, 66.7 vol % H2); hydrogen flammable range 4-75 vol % in air: NFPA 497 / IEC 60079-20-1, from memory',
   caution:
