@@ -279,7 +279,8 @@ class Solution {
     if (h > 1e-7) return Math.max(-1, -Math.log10(h))
     const co3 = this.get('CO3^2-')
     const hco3 = this.get('HCO3^-')
-    if (co3 > 1e-12 && hco3 > 1e-12) return PKA2 + Math.log10(co3 / hco3)
+    // Carbonate/bicarbonate buffer; with almost no carbonate left it tends to bicarbonate's own pH.
+    if (co3 > 1e-12 && hco3 > 1e-12) return Math.max(8.3, PKA2 + Math.log10(co3 / hco3))
     if (hco3 > 1e-12) return 8.3 // bicarbonate alone, (pKa1 + pKa2)/2 (CRC, from memory)
     if (co3 > 1e-12) return 11.6 // carbonate alone, about 0.5 mol/L (from memory)
     return 7
