@@ -1,11 +1,32 @@
 // The Cellrun language server over stdio (or IPC when the client asks for it): a thin layer that
 // keeps the open documents, runs the core analysis once per document version, and converts.
-import { createConnection, ProposedFeatures, TextDocuments, TextDocumentSyncKind } from 'vscode-languageserver/node'
+import { createConnection, LSPErrorCodes, ProposedFeatures, ResponseError, TextDocuments, TextDocumentSyncKind } from 'vscode-languageserver/node'
 import { TextDocument } from 'vscode-languageserver-textdocument'
-import { analyze, hoverAt, outline, type Analysis } from '../core/analyze'
-import type { ModelOptions } from '../core/model'
+import { analyze, outline, type Analysis } from '../core/analyze'
+import { completionsAt } from '../core/complete'
 import type { Severity } from '../core/diagnostics'
-import { toCodeActions, toDocumentSymbols, toInlayHints, toLspDiagnostic, toRange } from './convert'
+import { foldingRanges } from '../core/folding'
+import { formatDocument } from '../core/format'
+import { hoverWithData } from '../core/hover'
+import { codeLenses } from '../core/lens'
+import type { ModelOptions } from '../core/model'
+import { definitionAt, prepareRename, referencesAt, renameAt } from '../core/references'
+import { semanticTokens } from '../core/tokens'
+import { registerPreview } from './preview'
+import {
+  SEMANTIC_TOKENS_LEGEND,
+  toCodeActions,
+  toCodeLenses,
+  toCompletionItems,
+  toDocumentSymbols,
+  toFoldingRanges,
+  toInlayHints,
+  toLocations,
+  toLspDiagnostic,
+  toRange,
+  toSemanticTokens,
+  toTextEdits,
+} from './convert'
 
 const connection = createConnection(ProposedFeatures.all)
 const documents = new TextDocuments(TextDocument)
@@ -33,6 +54,14 @@ connection.onInitialize((params) => {
       inlayHintProvider: true,
       documentSymbolProvider: true,
       codeActionProvider: { codeActionKinds: ['quickfix'] },
+      completionProvider: { triggerCharacters: [' '] },
+      codeLensProvider: { resolveProvider: false },
+      foldingRangeProvider: true,
+      semanticTokensProvider: { legend: SEMANTIC_TOKENS_LEGEND, full: true, range: false },
+      documentFormattingProvider: true,
+      definitionProvider: true,
+      referencesProvider: true,
+      renameProvider: { prepareProvider: true },
     },
     serverInfo: { name: 'cellrun-server', version: '0.1.0' },
   }
@@ -76,7 +105,7 @@ connection.onHover(({ textDocument, position }) => {
   const doc = documents.get(textDocument.uri)
   if (!doc) return null
   const a = analysisOf(doc)
-  const h = hoverAt(a, a.index.offsetAt(position))
+  const h = hoverWithData(a, a.index.offsetAt(position))
   return h ? { contents: { kind: 'markdown', value: h.markdown }, range: toRange(a.index, h.span) } : null
 })
 
@@ -95,6 +124,77 @@ connection.onDocumentSymbol(({ textDocument }) => {
 connection.onCodeAction(({ textDocument, range }) => {
   const doc = documents.get(textDocument.uri)
   return doc ? toCodeActions(analysisOf(doc), textDocument.uri, range) : []
+})
+
+connection.onCompletion(({ textDocument, position }) => {
+  const doc = documents.get(textDocument.uri)
+  if (!doc) return []
+  const a = analysisOf(doc)
+  return toCompletionItems(a, completionsAt(a, a.index.offsetAt(position)))
+})
+
+connection.onCodeLens(({ textDocument }) => {
+  const doc = documents.get(textDocument.uri)
+  if (!doc) return []
+  const a = analysisOf(doc)
+  return toCodeLenses(a, codeLenses(a), textDocument.uri)
+})
+
+connection.onFoldingRanges(({ textDocument }) => {
+  const doc = documents.get(textDocument.uri)
+  return doc ? toFoldingRanges(foldingRanges(analysisOf(doc))) : []
+})
+
+connection.languages.semanticTokens.on(({ textDocument }) => {
+  const doc = documents.get(textDocument.uri)
+  if (!doc) return { data: [] }
+  const a = analysisOf(doc)
+  return toSemanticTokens(a, semanticTokens(a))
+})
+
+connection.onDocumentFormatting(({ textDocument }) => {
+  const doc = documents.get(textDocument.uri)
+  if (!doc) return []
+  const a = analysisOf(doc)
+  return toTextEdits(a, formatDocument(a.text, options, a).edits)
+})
+
+connection.onDefinition(({ textDocument, position }) => {
+  const doc = documents.get(textDocument.uri)
+  if (!doc) return null
+  const a = analysisOf(doc)
+  const span = definitionAt(a, a.index.offsetAt(position))
+  return span ? toLocations(a, textDocument.uri, [span])[0] : null
+})
+
+connection.onReferences(({ textDocument, position, context }) => {
+  const doc = documents.get(textDocument.uri)
+  if (!doc) return []
+  const a = analysisOf(doc)
+  return toLocations(a, textDocument.uri, referencesAt(a, a.index.offsetAt(position), context.includeDeclaration))
+})
+
+connection.onPrepareRename(({ textDocument, position }) => {
+  const doc = documents.get(textDocument.uri)
+  if (!doc) return null
+  const a = analysisOf(doc)
+  const r = prepareRename(a, a.index.offsetAt(position))
+  if ('error' in r) return new ResponseError(LSPErrorCodes.RequestFailed, r.error)
+  return { range: toRange(a.index, r.span), placeholder: r.placeholder }
+})
+
+connection.onRenameRequest(({ textDocument, position, newName }) => {
+  const doc = documents.get(textDocument.uri)
+  if (!doc) return null
+  const a = analysisOf(doc)
+  const r = renameAt(a, a.index.offsetAt(position), newName)
+  if ('error' in r) return new ResponseError(LSPErrorCodes.RequestFailed, r.error)
+  return { changes: { [textDocument.uri]: toTextEdits(a, r.edits) } }
+})
+
+registerPreview(connection, (uri) => {
+  const d = documents.get(uri)
+  return d && analysisOf(d)
 })
 
 documents.listen(connection)
