@@ -10,6 +10,8 @@ import { beforeAll, describe, expect, it } from 'vitest'
 const root = join(__dirname, '..')
 const server = join(root, 'dist', 'server.js')
 const has = (cmd: string) => spawnSync('sh', ['-c', `command -v ${cmd}`]).status === 0
+/** Emacs with eglot available (Debian's elpa-eglot, or Emacs 29+ where it is built in). */
+const hasEglot = () => has('emacs') && spawnSync('emacs', ['--batch', '--no-init-file', '--eval', "(progn (require 'package) (package-initialize) (require 'eglot))"]).status === 0
 
 let file = ''
 let text = ''
@@ -60,7 +62,7 @@ describe('real editors', () => {
     checkCommon(results(out))
   }, 70_000)
 
-  it.skipIf(!has('emacs'))('Emacs with eglot: diagnostics, inlay hints, completion and formatting', () => {
+  it.skipIf(!hasEglot())('Emacs with eglot: diagnostics, inlay hints, completion and formatting', () => {
     const r = spawnSync('emacs', ['--batch', '--no-init-file', '-l', join(root, 'test/editors/emacs-e2e.el')], {
       env: { ...process.env, CELLRUN_SERVER: server, CELLRUN_FILE: file },
       encoding: 'utf8',
