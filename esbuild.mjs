@@ -15,6 +15,9 @@ const builds = [
   { ...common, entryPoints: ['client/src/extension.ts'], outfile: 'dist/client.js', external: ['vscode'] },
   { ...common, entryPoints: ['server/src/lsp/main.ts'], outfile: 'dist/server.js' },
   { ...common, entryPoints: ['server/src/cli/main.ts'], outfile: 'dist/cli.js', banner: { js: '#!/usr/bin/env node' } },
+  // The browser build, for browser-hosted editors: a web-worker server and a browser client.
+  { ...common, platform: 'browser', format: 'cjs', target: 'es2022', entryPoints: ['client/src/browser.ts'], outfile: 'dist/browser/client.js', external: ['vscode'] },
+  { ...common, platform: 'browser', format: 'iife', target: 'es2022', entryPoints: ['server/src/lsp/browser.ts'], outfile: 'dist/browser/server.js' },
 ]
 
 if (watch) {

@@ -1,6 +1,5 @@
 // The `cellrun/preview` request: the run preview page (core/preview.ts) for an open document,
 // from the analysis the server already caches. Params { uri }, result { html }.
-import { randomBytes } from 'node:crypto'
 import type { Connection } from 'vscode-languageserver'
 import type { Analysis } from '../core/analyze'
 import { previewHtml } from '../core/preview'
@@ -21,7 +20,7 @@ export function registerPreview(connection: Pick<Connection, 'onRequest'>, getAn
 
 export function previewFor({ uri }: PreviewParams, getAnalysis: (uri: string) => Analysis | undefined): PreviewResult {
   const name = decodeURIComponent(uri.replace(/[?#].*$/, '').replace(/^.*\//, '')) || 'Cellrun run'
-  const nonce = randomBytes(18).toString('base64')
+  const nonce = makeNonce()
   const analysis = typeof uri === 'string' ? getAnalysis(uri) : undefined
   if (!analysis) {
     return { html: `<!DOCTYPE html><html lang="en"><head><meta charset="utf-8"><meta http-equiv="Content-Security-Policy" content="default-src 'none'"><title>Cellrun</title></head><body><p>${escapeText(name)} is not open in the editor.</p></body></html>` }
@@ -31,4 +30,13 @@ export function previewFor({ uri }: PreviewParams, getAnalysis: (uri: string) =>
 
 function escapeText(s: string): string {
   return s.replace(/&/g, '&amp;').replace(/</g, '&lt;').replace(/>/g, '&gt;')
+}
+
+/** A fresh nonce for the page's Content-Security-Policy, from the platform's crypto (Node 20 and browsers alike). */
+function makeNonce(): string {
+  const bytes = new Uint8Array(18)
+  globalThis.crypto.getRandomValues(bytes)
+  let bin = ''
+  for (const b of bytes) bin += String.fromCharCode(b)
+  return btoa(bin)
 }
