@@ -259,6 +259,11 @@ export interface ModelOptions {
   efficiencyFloor?: number
   /** Severity per rule code, overriding the rule's default; 'off' drops its findings. */
   severities?: Readonly<Record<string, Severity | 'off'>>
+  /** Significant figures in hint labels (default 3). */
+  significantFigures?: number
+  /** Run conditions assumed when a protocol states none (default 25 °C, 101.325 kPa). */
+  defaultTemperatureK?: number
+  defaultPressurePa?: number
 }
 
 export function buildModel(tree: SyntaxTree, options: ModelOptions = {}): Model {
@@ -269,8 +274,8 @@ export function buildModel(tree: SyntaxTree, options: ModelOptions = {}): Model 
     undissolved: [],
     twoWays: [],
     reactions: [],
-    temperatureK: DEFAULT_TEMPERATURE_K,
-    pressurePa: DEFAULT_PRESSURE_PA,
+    temperatureK: options.defaultTemperatureK ?? DEFAULT_TEMPERATURE_K,
+    pressurePa: options.defaultPressurePa ?? DEFAULT_PRESSURE_PA,
     conditionsStated: { temperature: false, pressure: false },
     values: new Map(),
     declarations: [],

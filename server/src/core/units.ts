@@ -531,8 +531,21 @@ export function prettyUnit(u: string): string {
     .replace(/\bu(?=[A-Za-z])/g, 'µ')
 }
 
-/** Format a number with `sig` significant figures, no exponent between 1e-3 and 1e6. */
-export function fmt(n: number, sig = 3): string {
+let labelFigures = 3
+
+/** Run `f` with another number of significant figures for labels (fmt's default); restores it after. */
+export function withSignificantFigures<T>(sig: number, f: () => T): T {
+  const before = labelFigures
+  labelFigures = Math.max(2, Math.min(8, Math.round(sig)))
+  try {
+    return f()
+  } finally {
+    labelFigures = before
+  }
+}
+
+/** Format a number with `sig` significant figures (3 unless a setting says otherwise), no exponent between 1e-3 and 1e6. */
+export function fmt(n: number, sig = labelFigures): string {
   if (!Number.isFinite(n)) return String(n)
   if (n === 0) return '0'
   const a = Math.abs(n)

@@ -23,6 +23,7 @@ import {
   type TextEdit,
 } from 'vscode-languageserver'
 import type { Analysis, OutlineItem } from '../core/analyze'
+import { hintGroup, type HintSettings } from './settings'
 import type { CompletionItem as CoreCompletionItem, CompletionKind as CoreCompletionKind } from '../core/complete'
 import type { Diagnostic, Edit, Severity } from '../core/diagnostics'
 import type { FoldingRange as CoreFoldingRange } from '../core/folding'
@@ -51,14 +52,14 @@ export function toLspDiagnostic(a: Analysis, d: Diagnostic): LspDiagnostic {
   }
 }
 
-export function toInlayHints(a: Analysis, range?: Range): InlayHint[] {
+export function toInlayHints(a: Analysis, range?: Range, settings: HintSettings = { groups: {}, brief: false }): InlayHint[] {
   const from = range ? a.index.offsetAt(range.start) : 0
   const to = range ? a.index.offsetAt(range.end) : a.text.length
   return a.computed
-    .filter((c) => c.anchor >= from && c.anchor <= to)
+    .filter((c) => c.anchor >= from && c.anchor <= to && settings.groups[hintGroup(c.key)] !== false)
     .map((c) => ({
       position: a.index.positionAt(c.anchor),
-      label: c.label,
+      label: settings.brief ? c.label.split(' · ')[0] : c.label,
       kind: InlayHintKind.Parameter,
       paddingLeft: true,
       tooltip: { kind: 'markdown', value: `**${c.title}**\n\n${c.working.map((w) => `    ${w}`).join('\n')}` },

@@ -5,7 +5,6 @@ import { LSPErrorCodes, ResponseError, TextDocuments, TextDocumentSyncKind, type
 import { TextDocument } from 'vscode-languageserver-textdocument'
 import { analyze, outline, type Analysis } from '../core/analyze'
 import { completionsAt } from '../core/complete'
-import type { Severity } from '../core/diagnostics'
 import { foldingRanges } from '../core/folding'
 import { formatDocument } from '../core/format'
 import { hoverWithData } from '../core/hover'
@@ -14,6 +13,7 @@ import type { ModelOptions } from '../core/model'
 import { definitionAt, prepareRename, referencesAt, renameAt } from '../core/references'
 import { semanticTokens } from '../core/tokens'
 import { registerPreview } from './preview'
+import { settingsToOptions, type HintSettings, type Settings } from './settings'
 import {
   SEMANTIC_TOKENS_LEGEND,
   toCodeActions,
@@ -34,6 +34,7 @@ export function startServer(connection: Connection): void {
   const cache = new Map<string, { version: number; analysis: Analysis }>()
   /** Analysis options from the `cellrun.*` settings (percent in the settings, fraction in the core). */
   let options: ModelOptions = {}
+  let hints: HintSettings = { groups: {}, brief: false }
   let canReadSettings = false
   let canRefreshHints = false
 
@@ -71,13 +72,10 @@ export function startServer(connection: Connection): void {
   /** Read the settings, and re-analyse the open documents when they change. */
   async function readSettings(): Promise<void> {
     if (!canReadSettings) return
-    const s = (await connection.workspace.getConfiguration('cellrun')) as { simulation?: { efficiencyFloor?: number }; rules?: Record<string, string> } | null
-    const floor = s?.simulation?.efficiencyFloor
-    const severities: Record<string, Severity | 'off'> = {}
-    for (const [code, v] of Object.entries(s?.rules ?? {})) {
-      if (v === 'error' || v === 'warning' || v === 'information' || v === 'off') severities[code] = v
-    }
-    options = { ...(typeof floor === 'number' && floor >= 0 && floor <= 100 ? { efficiencyFloor: floor / 100 } : {}), severities }
+    const s = (await connection.workspace.getConfiguration('cellrun')) as Settings | null
+    const read = settingsToOptions(s)
+    options = read.options
+    hints = read.hints
     cache.clear()
     for (const doc of documents.all()) publish(doc)
     if (canRefreshHints) void connection.languages.inlayHint.refresh()
@@ -112,7 +110,7 @@ export function startServer(connection: Connection): void {
 
   connection.languages.inlayHint.on(({ textDocument, range }) => {
     const doc = documents.get(textDocument.uri)
-    return doc ? toInlayHints(analysisOf(doc), range) : []
+    return doc ? toInlayHints(analysisOf(doc), range, hints) : []
   })
 
   connection.onDocumentSymbol(({ textDocument }) => {
