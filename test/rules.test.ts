@@ -11,9 +11,8 @@ import { readdirSync, readFileSync } from 'node:fs'
 import { fileURLToPath } from 'node:url'
 import { describe, expect, it } from 'vitest'
 import { analyze, type Analysis } from '../server/src/core/analyze'
-import type { Diagnostic, Fix, Severity } from '../server/src/core/diagnostics'
 import { RULES } from '../server/src/rules'
-import { marked } from './support/markers'
+import { ruleTester } from './support/rule-tester'
 
 // ---- helpers -----------------------------------------------------------------------------------
 
@@ -22,57 +21,7 @@ const analyses: Analysis[] = []
 /** Codes whose diagnostics a test has pinned down with markers. */
 const pinned = new Set<string>()
 
-function an(text: string): Analysis {
-  const a = analyze(text)
-  analyses.push(a)
-  return a
-}
-
-/**
- * Analyse a document with ⟦markers⟧ and check that the diagnostics of `code` are exactly at the
- * marked ranges (in order), with the given severities (one for all, or one per range).
- */
-function at(src: string, code: string, severity: Severity | Severity[]) {
-  const m = marked(src)
-  const a = an(m.text)
-  const ds = a.diagnostics.filter((d) => d.code === code)
-  expect(
-    ds.map((d) => ({ start: d.span.start, end: d.span.end, text: m.text.slice(d.span.start, d.span.end) })),
-    `diagnostics [${code}]: ${ds.map((d) => d.message).join(' | ')}`,
-  ).toEqual(m.ranges.map((r) => ({ ...r, text: m.text.slice(r.start, r.end) })))
-  const sev = Array.isArray(severity) ? severity : ds.map(() => severity)
-  expect(ds.map((d) => d.severity)).toEqual(sev)
-  pinned.add(code)
-  return { text: m.text, a, ds }
-}
-
-/** The rule stays silent on this text. */
-function silent(text: string, code: string): Analysis {
-  const a = an(text)
-  expect(a.diagnostics.filter((d) => d.code === code).map((d) => d.message)).toEqual([])
-  return a
-}
-
-function applyFix(text: string, f: Fix): string {
-  let out = text
-  for (const e of [...f.edits].sort((x, y) => y.span.start - x.span.start)) {
-    out = out.slice(0, e.span.start) + e.newText + out.slice(e.span.end)
-  }
-  return out
-}
-
-/** Apply the diagnostic's first fix; the result must equal `expected`; the code must be gone from that line. */
-function fixClears(text: string, d: Diagnostic, expected: string): Analysis {
-  expect(d.fixes.length, `no fix offered for [${d.code}] ${d.message}`).toBeGreaterThan(0)
-  const fixed = applyFix(text, d.fixes[0])
-  expect(fixed).toBe(expected)
-  const before = an(text)
-  const line = before.index.lineOf(d.span.start)
-  const after = an(fixed)
-  const left = after.diagnostics.filter((x) => x.code === d.code && after.index.lineOf(x.span.start) === line)
-  expect(left.map((x) => x.message), `[${d.code}] still on line ${line + 1} after the fix`).toEqual([])
-  return after
-}
+const { an, at, silent, fixClears } = ruleTester({ onAnalysis: (a) => analyses.push(a), onPinned: (code) => pinned.add(code) })
 
 /** A clean two-compartment cell; each test changes one thing in it. */
 const BASE = [

@@ -12,52 +12,15 @@
 import { readdirSync, readFileSync } from 'node:fs'
 import { fileURLToPath } from 'node:url'
 import { describe, expect, it } from 'vitest'
-import { analyze, type Analysis } from '../server/src/core/analyze'
-import type { Diagnostic, Fix, Severity } from '../server/src/core/diagnostics'
+import { analyze } from '../server/src/core/analyze'
 import { RULES } from '../server/src/rules'
 import { GROUP_B } from '../server/src/rules/safety/group-b'
 import { marked } from './support/markers'
+import { ruleTester } from './support/rule-tester'
 
 // ---- helpers (as in rules.test.ts) ---------------------------------------------------------------
 
-function at(src: string, code: string, severity: Severity | Severity[]) {
-  const m = marked(src)
-  const a = analyze(m.text)
-  const ds = a.diagnostics.filter((d) => d.code === code)
-  expect(
-    ds.map((d) => ({ start: d.span.start, end: d.span.end, text: m.text.slice(d.span.start, d.span.end) })),
-    `diagnostics [${code}]: ${ds.map((d) => d.message).join(' | ')}`,
-  ).toEqual(m.ranges.map((r) => ({ ...r, text: m.text.slice(r.start, r.end) })))
-  const sev = Array.isArray(severity) ? severity : ds.map(() => severity)
-  expect(ds.map((d) => d.severity)).toEqual(sev)
-  return { text: m.text, a, ds }
-}
-
-function silent(text: string, code: string): Analysis {
-  const a = analyze(text)
-  expect(a.diagnostics.filter((d) => d.code === code).map((d) => d.message)).toEqual([])
-  return a
-}
-
-function applyFix(text: string, f: Fix): string {
-  let out = text
-  for (const e of [...f.edits].sort((x, y) => y.span.start - x.span.start)) {
-    out = out.slice(0, e.span.start) + e.newText + out.slice(e.span.end)
-  }
-  return out
-}
-
-/** Apply the diagnostic's first fix; the result must equal `expected`; the code must be gone from that line. */
-function fixClears(text: string, d: Diagnostic, expected: string): Analysis {
-  expect(d.fixes.length, `no fix offered for [${d.code}] ${d.message}`).toBeGreaterThan(0)
-  const fixed = applyFix(text, d.fixes[0])
-  expect(fixed).toBe(expected)
-  const line = analyze(text).index.lineOf(d.span.start)
-  const after = analyze(fixed)
-  const left = after.diagnostics.filter((x) => x.code === d.code && after.index.lineOf(x.span.start) === line)
-  expect(left.map((x) => x.message), `[${d.code}] still on line ${line + 1} after the fix`).toEqual([])
-  return after
-}
+const { at, silent, fixClears, applyFix } = ruleTester()
 
 const lines = (...xs: string[]) => [...xs, ''].join('\n')
 const rule = (code: string) => GROUP_B.find((r) => r.code === code)!

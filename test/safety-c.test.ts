@@ -9,57 +9,23 @@
 import { readdirSync, readFileSync } from 'node:fs'
 import { fileURLToPath } from 'node:url'
 import { describe, expect, it } from 'vitest'
-import { analyze, type Analysis } from '../server/src/core/analyze'
-import type { Diagnostic, Fix, Severity } from '../server/src/core/diagnostics'
+import type { Analysis } from '../server/src/core/analyze'
+import type { Diagnostic, Severity } from '../server/src/core/diagnostics'
 import { RULES } from '../server/src/rules'
 import { GROUP_C } from '../server/src/rules/safety/group-c'
 import { ceil2, flowIn } from '../server/src/rules/safety/ventilation-capacity'
-import { marked } from './support/markers'
+import { ruleTester } from './support/rule-tester'
 
 // ---- helpers -----------------------------------------------------------------------------------
 
 const analyses: Analysis[] = []
 
-function an(text: string): Analysis {
-  const a = analyze(text)
-  analyses.push(a)
-  return a
-}
-
+const tester = ruleTester({ onAnalysis: (a) => analyses.push(a) })
+const { silent } = tester
 /** The diagnostics of `code` are exactly at the ⟦marked⟧ ranges, with the given severity. */
-function at(src: string, code: string, severity: Severity) {
-  const m = marked(src)
-  const a = an(m.text)
-  const ds = a.diagnostics.filter((d) => d.code === code)
-  expect(
-    ds.map((d) => ({ start: d.span.start, end: d.span.end, text: m.text.slice(d.span.start, d.span.end) })),
-    `diagnostics [${code}]: ${ds.map((d) => d.message).join(' | ')}`,
-  ).toEqual(m.ranges.map((r) => ({ ...r, text: m.text.slice(r.start, r.end) })))
-  expect(ds.map((d) => d.severity)).toEqual(ds.map(() => severity))
-  return { text: m.text, a, ds }
-}
-
-function silent(text: string, code: string): Analysis {
-  const a = an(text)
-  expect(a.diagnostics.filter((d) => d.code === code).map((d) => d.message)).toEqual([])
-  return a
-}
-
-function applyFix(text: string, f: Fix): string {
-  let out = text
-  for (const e of [...f.edits].sort((x, y) => y.span.start - x.span.start)) out = out.slice(0, e.span.start) + e.newText + out.slice(e.span.end)
-  return out
-}
-
+const at = (src: string, code: string, severity: Severity) => tester.at(src, code, severity)
 /** Apply the first fix; the text must become `expected`, and re-analysed it has no finding of the code at all. */
-function fixClears(text: string, d: Diagnostic, expected: string): Analysis {
-  expect(d.fixes.length, `no fix offered for [${d.code}] ${d.message}`).toBeGreaterThan(0)
-  const fixed = applyFix(text, d.fixes[0])
-  expect(fixed).toBe(expected)
-  const after = an(fixed)
-  expect(after.diagnostics.filter((x) => x.code === d.code).map((x) => x.message), `[${d.code}] after the fix`).toEqual([])
-  return after
-}
+const fixClears = (text: string, d: Diagnostic, expected: string) => tester.fixClears(text, d, expected, { scope: 'document' })
 
 const examplesDir = fileURLToPath(new URL('../examples/', import.meta.url))
 const EXAMPLES = readdirSync(examplesDir)

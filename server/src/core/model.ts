@@ -1162,7 +1162,7 @@ class Evaluator {
         continue
       }
       if (sp.products.length === 0) continue
-      const step = m.steps.find((x) => x.line === sp.line)
+      const step = held
       const energy: string[] = []
       const energyParts: string[] = []
       if (step?.voltageV !== undefined && step.chargeC !== undefined) {
