@@ -3,11 +3,11 @@
 //
 // Expected ranges are computed from the document text here (indexOf + a line/column helper that
 // is independent of the server's LineIndex), never copied from server output.
-import { spawn, execFileSync, type ChildProcessWithoutNullStreams } from 'node:child_process'
-import { existsSync, readFileSync, readdirSync, statSync } from 'node:fs'
+import { spawn, type ChildProcessWithoutNullStreams } from 'node:child_process'
+import { readFileSync } from 'node:fs'
 import { join } from 'node:path'
-import { fileURLToPath } from 'node:url'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { ensureBuilt, lineStartOf, posAt, rangeOf, ROOT, SERVER, TIMEOUT } from './support/lsp-server'
 import { createMessageConnection, StreamMessageReader, StreamMessageWriter, type MessageConnection } from 'vscode-jsonrpc/node'
 import {
   CodeActionKind,
@@ -33,38 +33,14 @@ import {
   type InitializeResult,
   type InlayHint,
   type MarkupContent,
-  type Position,
   type PublishDiagnosticsParams,
   type Range,
   type SymbolInformation,
 } from 'vscode-languageserver-protocol'
 
-const ROOT = fileURLToPath(new URL('..', import.meta.url))
-const SERVER = join(ROOT, 'dist', 'server.js')
-const TIMEOUT = 10_000
 
 // ------------------------------------------------------------------------------------------------
 // Independent position helpers (UTF-16 code units, '\n' line breaks: the test documents use only '\n').
-
-function posAt(text: string, offset: number): Position {
-  const before = text.slice(0, offset)
-  const line = before.split('\n').length - 1
-  const character = offset - (before.lastIndexOf('\n') + 1)
-  return { line, character }
-}
-
-function rangeOf(text: string, needle: string, from = 0): Range {
-  const at = text.indexOf(needle, from)
-  if (at < 0) throw new Error(`test setup: \`${needle}\` not found in the document`)
-  return { start: posAt(text, at), end: posAt(text, at + needle.length) }
-}
-
-/** Offset where the line that contains `needle` starts. */
-function lineStartOf(text: string, needle: string): number {
-  const at = text.indexOf(needle)
-  if (at < 0) throw new Error(`test setup: \`${needle}\` not found in the document`)
-  return text.lastIndexOf('\n', at) + 1
-}
 
 function markdownOf(h: Hover | null): string {
   if (!h) return ''
@@ -80,22 +56,6 @@ function labelText(h: InlayHint): string {
 
 // ------------------------------------------------------------------------------------------------
 // Build (only when needed), spawn, connect.
-
-/** Newest modification time of any file under `dir`. */
-function newestMtime(dir: string): number {
-  let newest = 0
-  for (const e of readdirSync(dir, { withFileTypes: true })) {
-    const p = join(dir, e.name)
-    newest = Math.max(newest, e.isDirectory() ? newestMtime(p) : statSync(p).mtimeMs)
-  }
-  return newest
-}
-
-function ensureBuilt(): void {
-  const stale = !existsSync(SERVER) || statSync(SERVER).mtimeMs < newestMtime(join(ROOT, 'server', 'src'))
-  if (stale) execFileSync(process.execPath, ['esbuild.mjs'], { cwd: ROOT, stdio: 'pipe', timeout: 60_000 })
-  if (!existsSync(SERVER)) throw new Error('dist/server.js was not built')
-}
 
 let child: ChildProcessWithoutNullStreams
 let conn: MessageConnection
