@@ -51,6 +51,14 @@ describe('settings', () => {
     expect(a.model.yields[0].litresPerMol!).toBeCloseTo((8.314462618 * 273.15) / 101325 * 1000, 6)
   })
 
+  it('shows gas volumes in the preferred unit', () => {
+    // 1 A·h of hydrogen at 25 °C and 101.325 kPa: 3600/(2F) mol × R·T/p = 0.018655 mol × 24.465 L/mol = 0.4564 L
+    const ml = analyze(PROTOCOL, settingsToOptions({ units: { gasVolume: 'mL' } }).options)
+    expect(ml.computed.find((c) => c.key === 'step.products')!.label).toContain('456 mL H₂')
+    const litres = analyze(PROTOCOL)
+    expect(litres.computed.find((c) => c.key === 'step.products')!.label).toContain('0.456 L H₂')
+  })
+
   it('reads rule severities and the efficiency floor, ignoring nonsense', () => {
     const { options } = settingsToOptions({ rules: { 'hydrogen-vent': 'off', x: 'loud' }, simulation: { efficiencyFloor: 90 }, significantFigures: 99 })
     expect(options.severities).toEqual({ 'hydrogen-vent': 'off' })

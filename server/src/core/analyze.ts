@@ -8,7 +8,7 @@ import { buildModel, type Computed, type Model, type ModelOptions } from './mode
 import { parse } from './parser'
 import { LineIndex, type Span } from './positions'
 import type { LineNode, SyntaxTree } from './syntax'
-import { fmt, withSignificantFigures } from './units'
+import { fmt, withGasUnit, withSignificantFigures } from './units'
 
 export interface Analysis {
   text: string
@@ -20,7 +20,7 @@ export interface Analysis {
 }
 
 export function analyze(text: string, options: ModelOptions = {}): Analysis {
-  return withSignificantFigures(options.significantFigures ?? 3, () => analyzeWith(text, options))
+  return withSignificantFigures(options.significantFigures ?? 3, () => withGasUnit(options.gasUnit ?? 'L', () => analyzeWith(text, options)))
 }
 
 function analyzeWith(text: string, options: ModelOptions): Analysis {

@@ -17,10 +17,12 @@ import {
   evaluateExpression,
   fmt,
   formatValue,
+  gasVolumeText,
   inKindUnit,
   isUnitSymbol,
   kindOf,
   type ExprFailure,
+  type GasUnit,
   type Kind,
   type Value,
 } from './units'
@@ -261,6 +263,8 @@ export interface ModelOptions {
   severities?: Readonly<Record<string, Severity | 'off'>>
   /** Significant figures in hint labels (default 3). */
   significantFigures?: number
+  /** Unit for gas volumes in hint labels (default L). */
+  gasUnit?: GasUnit
   /** Run conditions assumed when a protocol states none (default 25 °C, 101.325 kPa). */
   defaultTemperatureK?: number
   defaultPressurePa?: number
@@ -1287,7 +1291,7 @@ class Evaluator {
     if (!gas && where) y.initialMol = chargedMol(where, f)
     if (y.mol !== undefined) y.formedMol = y.mol - y.initialMol
     if (y.maxMolEff === undefined || y.maxMol100 === undefined || this.m.totals.electronMol === 0) return
-    const shown = (mol: number) => (q.kind === 'volume' ? `${fmt(mol * Vm)} L` : q.kind === 'amount' ? `${fmt(mol)} mol` : `${fmt(mol * M)} g`)
+    const shown = (mol: number) => (q.kind === 'volume' ? gasVolumeText(mol * Vm) : q.kind === 'amount' ? `${fmt(mol)} mol` : `${fmt(mol * M)} g`)
     const working = [
       `${y.reaction.equation}  (${y.reaction.reason})`,
       `n(e⁻) = ${fmt(this.m.totals.electronMol, 4)} mol over all steps`,
@@ -1377,7 +1381,7 @@ function couplingText(c: EngineResult['coupling']): string {
 
 /** A product amount as a chemist reads it: gases in litres at the run's conditions, the rest in grams. */
 function amountText(p: Product, mol: number, litresPerMol: number, sig = 3): string {
-  if (p.gas) return `${fmt(mol * litresPerMol, sig)} L`
+  if (p.gas) return gasVolumeText(mol * litresPerMol, sig)
   const M = parseFormula(p.formula).molarMass
   return Number.isFinite(M) ? `${fmt(mol * M, sig)} g` : `${fmt(mol, sig)} mol`
 }

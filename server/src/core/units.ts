@@ -533,6 +533,28 @@ export function prettyUnit(u: string): string {
 
 let labelFigures = 3
 
+/** Unit preference for gas volumes in hint labels. */
+export type GasUnit = 'L' | 'mL' | 'm^3'
+let gasUnit: GasUnit = 'L'
+
+/** Run `f` with a unit preference for gas volumes in labels; restores it after. */
+export function withGasUnit<T>(unit: GasUnit, f: () => T): T {
+  const before = gasUnit
+  gasUnit = unit
+  try {
+    return f()
+  } finally {
+    gasUnit = before
+  }
+}
+
+/** A gas volume given in litres, in the preferred unit: "1.5 L", "1500 mL", "0.0015 m³". */
+export function gasVolumeText(litres: number, sig = labelFigures): string {
+  if (gasUnit === 'mL') return `${fmt(litres * 1000, sig)} mL`
+  if (gasUnit === 'm^3') return `${fmt(litres / 1000, sig)} m³`
+  return `${fmt(litres, sig)} L`
+}
+
 /** Run `f` with another number of significant figures for labels (fmt's default); restores it after. */
 export function withSignificantFigures<T>(sig: number, f: () => T): T {
   const before = labelFigures

@@ -8,6 +8,7 @@ export interface Settings {
   rules?: Record<string, string>
   significantFigures?: number
   defaults?: { temperature?: number; pressure?: number }
+  units?: { gasVolume?: string }
   inlayHints?: Partial<Record<HintGroup, boolean>> & { verbosity?: 'full' | 'brief' }
 }
 
@@ -46,6 +47,8 @@ export function settingsToOptions(s: Settings | null | undefined): { options: Mo
   if (typeof t === 'number' && t > -ZERO_CELSIUS && t < 1000) options.defaultTemperatureK = t + ZERO_CELSIUS
   const p = s?.defaults?.pressure
   if (typeof p === 'number' && p > 0) options.defaultPressurePa = p * 1000
+  const gas = s?.units?.gasVolume
+  if (gas === 'L' || gas === 'mL' || gas === 'm^3') options.gasUnit = gas
   const groups: HintSettings['groups'] = {}
   for (const g of ['charge', 'amounts', 'reactions', 'products', 'yields', 'simulation'] as const) {
     if (s?.inlayHints?.[g] === false) groups[g] = false
