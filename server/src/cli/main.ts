@@ -1,22 +1,28 @@
 // The Cellrun command line: `cellrun check FILE...` and `cellrun annotate FILE...`.
 // A thin layer over the same analysis core as the language server.
-import { readFileSync } from 'node:fs'
-import { analyze } from '../core/analyze'
+import { existsSync, readdirSync, readFileSync, statSync } from 'node:fs'
+import { join, relative } from 'node:path'
+import { analyze, type Analysis } from '../core/analyze'
 import type { Severity } from '../core/diagnostics'
-import { annotate, diagnosticLines, jsonReport } from '../core/report'
+import { annotate, diagnosticLines, jsonReport, sarifReport } from '../core/report'
 import { RULES } from '../rules'
 
 const USAGE = `usage:
-  cellrun check [--format text|json] FILE...   report diagnostics; exit 1 when any is an error
+  cellrun check [--format text|json|sarif] PATH...
+                                               report diagnostics; exit 1 when any is an error
+                                               PATH: files, folders (every *.cellrun below) or globs (*, **)
   cellrun annotate FILE...                     print each line with its computed values
   cellrun explain [CODE]                       a rule's full text; without CODE, the list of rules
 Options:
   --efficiency-floor PERCENT   report a simulated step efficiency below this (default 80)
   --rule CODE=SEVERITY         error | warning | information | off, for one rule (repeatable)
+  --max-warnings N             also exit 1 when there are more than N warnings
+  --quiet                      report errors only
   cellrun --help | --version
 
 Diagnostics print as FILE:LINE:COLUMN: error|warning|note: MESSAGE [CODE] (1-based).
-Exit codes: 0 no errors, 1 errors found, 2 usage or file problems.`
+Exit codes: 0 no errors, 1 errors found (or more warnings than --max-warnings),
+2 usage or file problems.`
 
 export function run(argv: string[], out: (s: string) => void, err: (s: string) => void): number {
   const args = [...argv]
@@ -36,6 +42,8 @@ export function run(argv: string[], out: (s: string) => void, err: (s: string) =
   }
   let format = 'text'
   let floor = 80
+  let maxWarnings = Infinity
+  let quiet = false
   const severities: Record<string, Severity | 'off'> = {}
   const files: string[] = []
   for (let i = 0; i < args.length; i++) {
@@ -55,15 +63,23 @@ export function run(argv: string[], out: (s: string) => void, err: (s: string) =
         return 2
       }
       severities[m[1]] = m[2] as Severity | 'off'
-    } else if (a === '--format') format = args[++i] ?? ''
+    } else if (a === '--max-warnings') {
+      const v = Number(args[++i])
+      if (!Number.isInteger(v) || v < 0) {
+        err('cellrun: --max-warnings takes a whole number')
+        return 2
+      }
+      maxWarnings = v
+    } else if (a === '--quiet') quiet = true
+    else if (a === '--format') format = args[++i] ?? ''
     else if (a.startsWith('--format=')) format = a.slice('--format='.length)
     else if (a.startsWith('-')) {
       err(`cellrun: unknown option '${a}'`)
       return 2
     } else files.push(a)
   }
-  if (format !== 'text' && format !== 'json') {
-    err(`cellrun: --format must be text or json`)
+  if (format !== 'text' && format !== 'json' && format !== 'sarif') {
+    err(`cellrun: --format must be text, json or sarif`)
     return 2
   }
   if (files.length === 0) {
@@ -71,9 +87,13 @@ export function run(argv: string[], out: (s: string) => void, err: (s: string) =
     return 2
   }
   let errors = 0
+  let warnings = 0
   let unreadable = 0
   const reports = []
-  for (const file of files) {
+  const analysed: { file: string; analysis: Analysis }[] = []
+  const expanded = expandPaths(files, err)
+  unreadable += expanded.missing
+  for (const file of expanded.files) {
     let text: string
     try {
       text = readFileSync(file, 'utf8')
@@ -82,15 +102,61 @@ export function run(argv: string[], out: (s: string) => void, err: (s: string) =
       unreadable++
       continue
     }
-    const a = analyze(text, { efficiencyFloor: floor / 100, severities })
+    const full = analyze(text, { efficiencyFloor: floor / 100, severities })
+    const a = quiet ? { ...full, diagnostics: full.diagnostics.filter((d) => d.severity === 'error') } : full
     errors += a.diagnostics.filter((d) => d.severity === 'error').length
+    warnings += a.diagnostics.filter((d) => d.severity === 'warning').length
     if (cmd === 'annotate') out(annotate(a, file))
     else if (format === 'json') reports.push(jsonReport(a, file))
+    else if (format === 'sarif') analysed.push({ file, analysis: a })
     else for (const l of diagnosticLines(a, file)) out(l)
   }
   if (cmd === 'check' && format === 'json') out(JSON.stringify({ files: reports }, null, 2))
+  if (cmd === 'check' && format === 'sarif') out(JSON.stringify(sarifReport(analysed, RULES, VERSION), null, 2))
   if (unreadable > 0) return 2
-  return cmd === 'check' && errors > 0 ? 1 : 0
+  if (cmd !== 'check') return 0
+  return errors > 0 || warnings > maxWarnings ? 1 : 0
+}
+
+const VERSION = '0.1.0'
+
+/** Files, folders (every *.cellrun below them) and globs (`*`, `**`, `?`) to a sorted list of files. */
+function expandPaths(paths: string[], err: (s: string) => void): { files: string[]; missing: number } {
+  const out = new Set<string>()
+  let missing = 0
+  const walk = (dir: string, into: (f: string) => void) => {
+    for (const e of readdirSync(dir, { withFileTypes: true })) {
+      if (e.name === 'node_modules' || e.name.startsWith('.')) continue
+      const p = join(dir, e.name)
+      if (e.isDirectory()) walk(p, into)
+      else into(p)
+    }
+  }
+  for (const p of paths) {
+    if (/[*?]/.test(p)) {
+      const base = p.split('/').filter((seg, i, all) => !/[*?]/.test(seg) && all.slice(0, i + 1).every((x) => !/[*?]/.test(x))).join('/') || '.'
+      const re = new RegExp(
+        '^' +
+          p
+            .replace(/^\.\//, '')
+            .split('/')
+            .map((seg) => (seg === '**' ? '(?:.*/)?' : seg.replace(/[.+^${}()|[\]\\]/g, '\\$&').replace(/\*/g, '[^/]*').replace(/\?/g, '[^/]') + '/'))
+            .join('')
+            .replace(/\(\?:\.\*\/\)\?$/, '.*')
+            .replace(/\/$/, '') +
+          '$',
+      )
+      const before = out.size
+      if (existsSync(base)) walk(base, (f) => re.test(relative('.', f).replace(/\\/g, '/')) && out.add(f))
+      if (out.size === before) {
+        err(`cellrun: no file matches ${p}`)
+        missing++
+      }
+    } else if (existsSync(p) && statSync(p).isDirectory()) {
+      walk(p, (f) => f.endsWith('.cellrun') && out.add(f))
+    } else out.add(p)
+  }
+  return { files: [...out].sort(), missing }
 }
 
 /** `cellrun explain CODE`: a rule's full text; without a code, the list. */

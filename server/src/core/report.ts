@@ -139,3 +139,55 @@ export function annotate(a: Analysis, file: string): string {
   }
   return out.join('\n') + '\n'
 }
+
+/** A SARIF 2.1.0 log of the analyses, with file URIs relative to the `SRCROOT` base. */
+export function sarifReport(items: { file: string; analysis: Analysis }[], rules: readonly { code: string; severity: Diagnostic['severity']; summary: string; caution?: string; details?: string; category?: string }[], version: string): object {
+  const level = (s: Diagnostic['severity']) => (s === 'error' ? 'error' : s === 'warning' ? 'warning' : 'note')
+  const index = new Map(rules.map((r, i) => [r.code, i]))
+  const uri = (file: string) => file.replace(/\\/g, '/').replace(/^\.\//, '').split('/').map(encodeURIComponent).join('/')
+  return {
+    $schema: 'https://json.schemastore.org/sarif-2.1.0.json',
+    version: '2.1.0',
+    runs: [
+      {
+        tool: {
+          driver: {
+            name: 'cellrun',
+            version,
+            rules: rules.map((r) => ({
+              id: r.code,
+              shortDescription: { text: r.summary },
+              ...(r.details ? { fullDescription: { text: r.details } } : {}),
+              ...(r.caution ? { help: { text: r.caution } } : {}),
+              defaultConfiguration: { level: level(r.severity) },
+              properties: { category: r.category ?? 'consistency' },
+            })),
+          },
+        },
+        originalUriBaseIds: { SRCROOT: { description: { text: 'The folder cellrun was run from.' } } },
+        artifacts: items.map((x) => ({ location: { uri: uri(x.file), uriBaseId: 'SRCROOT' } })),
+        results: items.flatMap((x, artifactIndex) =>
+          x.analysis.diagnostics.map((d) => {
+            const s = x.analysis.index.humanAt(d.span.start)
+            const e = x.analysis.index.humanAt(Math.max(d.span.end, d.span.start))
+            return {
+              ruleId: d.code,
+              ...(index.has(d.code) ? { ruleIndex: index.get(d.code) } : {}),
+              level: level(d.severity),
+              message: { text: d.caution ? `${d.message} Caution: ${d.caution}` : d.message },
+              locations: [
+                {
+                  physicalLocation: {
+                    artifactLocation: { uri: uri(x.file), uriBaseId: 'SRCROOT', index: artifactIndex },
+                    region: { startLine: s.line, startColumn: s.column, endLine: e.line, endColumn: e.column },
+                  },
+                },
+              ],
+              ...(d.noted ? { suppressions: [{ kind: 'inSource', justification: d.noted }] } : {}),
+            }
+          }),
+        ),
+      },
+    ],
+  }
+}
