@@ -4,6 +4,7 @@ import { existsSync, readdirSync, readFileSync, statSync } from 'node:fs'
 import { join, relative } from 'node:path'
 import { analyze, type Analysis } from '../core/analyze'
 import type { Severity } from '../core/diagnostics'
+import { compareOutcomes } from '../core/compare'
 import { annotate, diagnosticLines, jsonReport, sarifReport } from '../core/report'
 import { RULES } from '../rules'
 
@@ -13,6 +14,7 @@ const USAGE = `usage:
                                                PATH: files, folders (every *.cellrun below) or globs (*, **)
   cellrun annotate FILE...                     print each line with its computed values
   cellrun explain [CODE]                       a rule's full text; without CODE, the list of rules
+  cellrun compare OLD NEW                      how the computed outcome changed between two versions
 Options:
   --efficiency-floor PERCENT   report a simulated step efficiency below this (default 80)
   --rule CODE=SEVERITY         error | warning | information | off, for one rule (repeatable)
@@ -36,6 +38,7 @@ export function run(argv: string[], out: (s: string) => void, err: (s: string) =
     return 0
   }
   if (cmd === 'explain') return explain(args[0], out, err)
+  if (cmd === 'compare') return compare(args, out, err)
   if (cmd !== 'check' && cmd !== 'annotate') {
     err(`cellrun: unknown command '${cmd}'\n${USAGE}`)
     return 2
@@ -157,6 +160,27 @@ function expandPaths(paths: string[], err: (s: string) => void): { files: string
     } else out.add(p)
   }
   return { files: [...out].sort(), missing }
+}
+
+/** `cellrun compare OLD NEW`: the outcome's changes, one per line (also usable as a git difftool). */
+function compare(args: string[], out: (s: string) => void, err: (s: string) => void): number {
+  if (args.length !== 2) {
+    err('cellrun: compare takes two files: OLD NEW')
+    return 2
+  }
+  const texts: string[] = []
+  for (const f of args) {
+    try {
+      texts.push(readFileSync(f, 'utf8'))
+    } catch (e) {
+      err(`cellrun: cannot read ${f}: ${e instanceof Error ? e.message : String(e)}`)
+      return 2
+    }
+  }
+  const lines = compareOutcomes(analyze(texts[0]), analyze(texts[1]))
+  out(`== ${args[0]} → ${args[1]}`)
+  out(lines.length ? lines.join('\n') : '(no change in the computed outcome)')
+  return 0
 }
 
 /** `cellrun explain CODE`: a rule's full text; without a code, the list. */
