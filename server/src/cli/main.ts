@@ -5,6 +5,7 @@ import { join, relative } from 'node:path'
 import { analyze, type Analysis } from '../core/analyze'
 import type { Severity } from '../core/diagnostics'
 import { compareOutcomes } from '../core/compare'
+import { sheetHtml, sheetMarkdown } from '../core/sheet'
 import { annotate, diagnosticLines, jsonReport, sarifReport } from '../core/report'
 import { RULES } from '../rules'
 
@@ -15,6 +16,7 @@ const USAGE = `usage:
   cellrun annotate FILE...                     print each line with its computed values
   cellrun explain [CODE]                       a rule's full text; without CODE, the list of rules
   cellrun compare OLD NEW                      how the computed outcome changed between two versions
+  cellrun sheet [--html] FILE                  a printable run sheet (Markdown, or HTML with the plots)
 Options:
   --efficiency-floor PERCENT   report a simulated step efficiency below this (default 80)
   --rule CODE=SEVERITY         error | warning | information | off, for one rule (repeatable)
@@ -39,6 +41,24 @@ export function run(argv: string[], out: (s: string) => void, err: (s: string) =
   }
   if (cmd === 'explain') return explain(args[0], out, err)
   if (cmd === 'compare') return compare(args, out, err)
+  if (cmd === 'sheet') {
+    const html = args.includes('--html')
+    const file = args.filter((x) => x !== '--html')[0]
+    if (!file || args.filter((x) => x !== '--html').length !== 1) {
+      err('cellrun: sheet takes one file: cellrun sheet [--html] FILE')
+      return 2
+    }
+    let text: string
+    try {
+      text = readFileSync(file, 'utf8')
+    } catch (e) {
+      err(`cellrun: cannot read ${file}: ${e instanceof Error ? e.message : String(e)}`)
+      return 2
+    }
+    const a = analyze(text)
+    out(html ? sheetHtml(a, file) : sheetMarkdown(a, file))
+    return 0
+  }
   if (cmd !== 'check' && cmd !== 'annotate') {
     err(`cellrun: unknown command '${cmd}'\n${USAGE}`)
     return 2
