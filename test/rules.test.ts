@@ -12,6 +12,7 @@ import { fileURLToPath } from 'node:url'
 import { describe, expect, it } from 'vitest'
 import { analyze, type Analysis } from '../server/src/core/analyze'
 import { RULES } from '../server/src/rules'
+import { marked } from './support/markers'
 import { ruleTester } from './support/rule-tester'
 
 // ---- helpers -----------------------------------------------------------------------------------
@@ -526,6 +527,30 @@ describe('noted-reason', () => {
     const src = BASE.replace('expect KOH 3 g in product', 'expect KOH 50 g in product')
     expect(analyze(src, { severities: { 'beyond-faraday': 'warning' } }).diagnostics.find((x) => x.code === 'beyond-faraday')!.severity).toBe('warning')
     expect(analyze(src, { severities: { 'beyond-faraday': 'off' } }).diagnostics.find((x) => x.code === 'beyond-faraday')).toBeUndefined()
+  })
+})
+
+// ---- include-file ------------------------------------------------------------------------------
+describe('include-file', () => {
+  const files: Record<string, string> = { '/ws/house.cellrun': 'let area = 36 cm^2\n', '/ws/a.cellrun': 'include "b.cellrun"\n', '/ws/b.cellrun': 'include "a.cellrun"\n' }
+  const includes = (file: string) => ({ file, root: '/ws', read: (p: string) => files[p] })
+
+  it('without a workspace to read from, an include is a note', () => {
+    at('include "⟦house.cellrun⟧"\n', 'include-file', 'information')
+  })
+
+  it('a path outside the workspace, a missing file and a cycle are errors on the include path', () => {
+    const m = marked('include "⟦../etc/x.cellrun⟧"\ninclude "⟦nothere.cellrun⟧"\ninclude "⟦a.cellrun⟧"\n')
+    const ds = analyze(m.text, { includes: includes('/ws/main.cellrun') }).diagnostics.filter((d) => d.code === 'include-file')
+    expect(ds.map((d) => d.span)).toEqual(m.ranges)
+    expect(ds.map((d) => d.severity)).toEqual(['error', 'error', 'error'])
+    expect(ds[2].message).toContain('cycle')
+    pinned.add('include-file')
+  })
+
+  it('is silent when the include resolves, and the included value is known', () => {
+    const a = analyze('include "house.cellrun"\nlet j = 40 mA/cm^2 * area\n', { includes: includes('/ws/main.cellrun') })
+    expect(a.diagnostics.map((d) => d.code)).toEqual([])
   })
 })
 

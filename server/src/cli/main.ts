@@ -1,7 +1,7 @@
 // The Cellrun command line: `cellrun check FILE...` and `cellrun annotate FILE...`.
 // A thin layer over the same analysis core as the language server.
 import { existsSync, readdirSync, readFileSync, statSync } from 'node:fs'
-import { join, relative } from 'node:path'
+import { join, relative, resolve } from 'node:path'
 import { analyze, type Analysis } from '../core/analyze'
 import type { Severity } from '../core/diagnostics'
 import { compareOutcomes } from '../core/compare'
@@ -125,7 +125,7 @@ export function run(argv: string[], out: (s: string) => void, err: (s: string) =
       unreadable++
       continue
     }
-    const full = analyze(text, { efficiencyFloor: floor / 100, severities })
+    const full = analyze(text, { efficiencyFloor: floor / 100, severities, includes: includesFor(file) })
     const a = quiet ? { ...full, diagnostics: full.diagnostics.filter((d) => d.severity === 'error') } : full
     errors += a.diagnostics.filter((d) => d.severity === 'error').length
     warnings += a.diagnostics.filter((d) => d.severity === 'warning').length
@@ -142,6 +142,22 @@ export function run(argv: string[], out: (s: string) => void, err: (s: string) =
 }
 
 const VERSION = '0.1.0'
+
+/** Includes resolve against the disk, inside the folder cellrun runs from. */
+function includesFor(file: string) {
+  const abs = (p: string) => resolve(p).replace(/\\/g, '/')
+  return {
+    file: abs(file),
+    root: abs('.'),
+    read: (p: string) => {
+      try {
+        return readFileSync(p, 'utf8')
+      } catch {
+        return undefined
+      }
+    },
+  }
+}
 
 /** Files, folders (every *.cellrun below them) and globs (`*`, `**`, `?`) to a sorted list of files. */
 function expandPaths(paths: string[], err: (s: string) => void): { files: string[]; missing: number } {

@@ -2,6 +2,7 @@
 // values, diagnostics, outline, hovers). No editor or LSP types are used anywhere in the core.
 import { RULES } from '../rules'
 import { NOTED_ANY } from '../rules/noted'
+import { gatherIncludes } from './include'
 import type { Diagnostic } from './diagnostics'
 import { prettyFormula } from './formula'
 import { buildModel, type Computed, type Model, type ModelOptions } from './model'
@@ -17,6 +18,8 @@ export interface Analysis {
   model: Model
   computed: Computed[]
   diagnostics: Diagnostic[]
+  /** The definitions files the document includes (absolute paths), for re-analysis when they change. */
+  includedFiles: string[]
 }
 
 export function analyze(text: string, options: ModelOptions = {}): Analysis {
@@ -26,11 +29,29 @@ export function analyze(text: string, options: ModelOptions = {}): Analysis {
 function analyzeWith(text: string, options: ModelOptions): Analysis {
   const index = new LineIndex(text)
   const tree = parse(text, index)
-  const model = buildModel(tree, options)
+  // Included definitions are appended after the document and analysed with it; what the analysis
+  // says about the appended part is dropped (it belongs to the definitions file).
+  let modelTree = tree
+  let modelIndex = index
+  let modelOptions = options
+  let files: string[] = []
+  if (options.includes && tree.lines.some((n) => n.kind === 'include')) {
+    const got = gatherIncludes(tree.lines, options.includes)
+    files = got.files
+    modelOptions = { ...options, includeProblems: got.problems }
+    if (got.defs) {
+      const combined = text + (text === '' || /[\r\n]$/.test(text) ? '' : '\n') + got.defs + '\n'
+      modelIndex = new LineIndex(combined)
+      modelTree = parse(combined, modelIndex)
+      modelOptions.definitionsFrom = modelIndex.lineOf(text.length === 0 || /[\r\n]$/.test(text) ? text.length : text.length + 1)
+    }
+  }
+  const model = buildModel(modelTree, modelOptions)
+  const inDocument = (span: Span) => span.start < text.length || (span.start === text.length && modelTree === tree)
   const diagnostics: Diagnostic[] = []
   for (const rule of RULES) {
     try {
-      diagnostics.push(...rule.check({ model, index }))
+      diagnostics.push(...rule.check({ model, index: modelIndex }).filter((d) => inDocument(d.span)))
     } catch (e) {
       // A failing rule must not hide the others' findings.
       diagnostics.push({
@@ -44,7 +65,8 @@ function analyzeWith(text: string, options: ModelOptions): Analysis {
   }
   const settled = applyNotesAndSeverities(diagnostics, tree, text, index, options)
   settled.sort((a, b) => a.span.start - b.span.start || a.span.end - b.span.end || a.code.localeCompare(b.code))
-  return { text, index, tree, model, computed: model.computed, diagnostics: settled }
+  const computed = modelTree === tree ? model.computed : model.computed.filter((c) => inDocument(c.span) && c.anchor <= text.length)
+  return { text, index, tree, model, computed, diagnostics: settled, includedFiles: files }
 }
 
 

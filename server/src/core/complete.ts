@@ -44,6 +44,8 @@ export const KEYWORD_DOCS: Readonly<Record<(typeof STATEMENT_KEYWORDS)[number], 
   observe: { insert: 'observe ', doc: '`observe FORMULA AMOUNT [in COMPARTMENT]`: the measured amount; gives the real current efficiency.' },
   handling: { insert: 'handling ', doc: '`handling KIND: TEXT`: a declared arrangement (vent, scrubber, hood, cooling, ppe, shield, detector).' },
   reaction: { insert: 'reaction ', doc: '`reaction anode: EQUATION`: states an electrode\'s half-reaction (likewise `cathode`).' },
+  material: { insert: 'material ', doc: '`material NAME: DESCRIPTION`: declares a house electrode material; completion offers it after `anode` and `cathode`.' },
+  include: { insert: 'include "', doc: '`include "PATH"`: takes the named values and the cell from a definitions file in the same workspace.' },
 }
 
 const CLAUSE_DOCS: Readonly<Record<(typeof STEP_CLAUSES)[number], string>> = {
@@ -155,7 +157,11 @@ export function completionsAt(a: Analysis, offset: number): CompletionItem[] {
 
   if (/^\s*separator\s+[\w-]*$/.test(before)) return SEPARATOR_KINDS.map((k) => item(k, 'kind', word, 'separator kind', SEPARATOR_DOCS[k]))
   if (/^\s*handling\s+[\w-]*$/.test(before)) return HANDLING_KINDS.map((k) => item(k, 'kind', word, 'handling kind', HANDLING_DOCS[k], `${k}: `))
-  if (/^\s*(?:anode|cathode)\s+[\w-]*$/.test(before)) return ELECTRODE_MATERIALS.map((x) => item(x.name, 'material', word, 'electrode material', x.doc))
+  if (/^\s*(?:anode|cathode)\s+[\w-]*$/.test(before)) {
+    // House materials (declared here or in an included definitions file) first.
+    const house = a.model.tree.lines.flatMap((n) => (n.kind === 'material' ? [item(n.name.text, 'material', word, 'house material', n.description?.text ?? 'declared with `material`')] : []))
+    return [...house, ...ELECTRODE_MATERIALS.map((x) => item(x.name, 'material', word, 'electrode material', x.doc))]
+  }
   if (/^\s*vessel\s+[\w-]*$/.test(before)) return VESSEL_MATERIALS.map((x) => item(x, 'material', word, 'vessel material'))
   if (/^\s*reaction\s+\w*$/.test(before)) return ['anode', 'cathode'].map((r) => item(r, 'keyword', word, 'electrode', undefined, `${r}: `))
   if (/^\s*charge\s+[\w-]*$/.test(before)) return compartments(ctx)

@@ -10,6 +10,7 @@ import { simulate, type SimResult, type SimTarget } from './simulate'
 import { DENSITY_20C, massFractionFromMassConc, massFractionFromMolarity, solutionDensity } from './data/density'
 import { SOLUBILITY, solubilityAt } from './data/solubility'
 import type { Severity } from './diagnostics'
+import type { IncludeOptions, IncludeProblem } from './include'
 import { parseFormula, prettyFormula, type Formula } from './formula'
 import type { Span } from './positions'
 import type { ChargeItem, LineNode, SyntaxTree, Tok } from './syntax'
@@ -249,6 +250,9 @@ export interface Model {
   simulation?: SimResult
   /** Concentrations `expect` lines plan for (targets for the simulation). */
   targets: SimTarget[]
+  /** Problems with `include` lines, and whether includes were followed at all. */
+  includeProblems: IncludeProblem[]
+  includesFollowed: boolean
   totals: { chargeC: number; electronMol: number; effectiveElectronMol: number; seconds: number; energyJ?: number }
 }
 
@@ -265,6 +269,12 @@ export interface ModelOptions {
   significantFigures?: number
   /** Unit for gas volumes in hint labels (default L). */
   gasUnit?: GasUnit
+  /** Where to find included definitions files (see include.ts); without it `include` lines are not followed. */
+  includes?: IncludeOptions
+  /** Set by analyze(): the first line of the included definitions appended to the document. */
+  definitionsFrom?: number
+  /** Set by analyze(): what went wrong with the include lines. */
+  includeProblems?: IncludeProblem[]
   /** Run conditions assumed when a protocol states none (default 25 °C, 101.325 kPa). */
   defaultTemperatureK?: number
   defaultPressurePa?: number
@@ -275,6 +285,8 @@ export function buildModel(tree: SyntaxTree, options: ModelOptions = {}): Model 
     tree,
     approximations: [],
     targets: [],
+    includeProblems: options.includeProblems ?? [],
+    includesFollowed: options.includes !== undefined,
     undissolved: [],
     twoWays: [],
     reactions: [],
@@ -297,8 +309,11 @@ export function buildModel(tree: SyntaxTree, options: ModelOptions = {}): Model 
   }
   const ev = new Evaluator(m)
 
-  // Pass 1: named values, in order (a value may use the values defined above it).
-  for (const n of tree.lines) {
+  // Pass 1: named values, in order (a value may use the values defined above it). Included
+  // definitions (appended after the document) come first: they are defined before it.
+  const from = options.definitionsFrom
+  const inOrder = from !== undefined ? [...tree.lines.slice(from), ...tree.lines.slice(0, from)] : tree.lines
+  for (const n of inOrder) {
     if (n.kind !== 'let') continue
     const shadowsUnit = isUnitSymbol(n.name.text)
     m.declarations.push({ line: n.line, tok: n.name, of: 'value', ...(shadowsUnit ? { shadowsUnit } : {}) })

@@ -223,6 +223,23 @@ function parseLine(raw: string, base: number, line: number, inCell: boolean): Li
         const equation = s.restTok('the half-reaction, e.g. `2 Cl- -> Cl2 + 2 e-`')
         return { kind: 'reaction', ...k, role, equation }
       }
+      case 'material': {
+        s.ws1('a material name')
+        const name = s.word('a material name, e.g. `material house-mmo: Ti mesh with RuO2/IrO2 coating`')
+        s.ws()
+        if (s.pos >= content.length) return { kind: 'material', ...k, name }
+        s.lit(':', '`:` before the description')
+        s.ws()
+        const description = s.restTok('a description after `:`')
+        return { kind: 'material', ...k, name, description }
+      }
+      case 'include': {
+        s.ws()
+        const path = s.quoted()
+        if (!path || path.text.trim() === '') throw new LineError('expected a quoted path, e.g. `include "house/cell.cellrun"`', s.pos)
+        s.end()
+        return { kind: 'include', ...k, path }
+      }
       case 'handling': {
         s.ws1('a kind')
         const type = s.word('a handling kind, e.g. `handling vent: ...`')

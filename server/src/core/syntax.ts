@@ -68,6 +68,8 @@ export type LineNode =
   | (Base & YieldFields & { kind: 'observe' })
   | (Base & { kind: 'handling'; type: Tok; text: Tok })
   | (Base & { kind: 'reaction'; role: Tok; equation: Tok })
+  | (Base & { kind: 'include'; path: Tok })
+  | (Base & { kind: 'material'; name: Tok; description?: Tok })
   | (Base & { kind: 'error'; message: string; errorSpan: Span; fix?: { span: Span; newText: string; title: string } })
 
 export type NodeKind = LineNode['kind']
@@ -95,6 +97,8 @@ export const STATEMENT_KEYWORDS = [
   'observe',
   'handling',
   'reaction',
+  'include',
+  'material',
 ] as const
 
 export const CELL_KEYWORDS = ['vessel', 'compartment', 'separator', 'anode', 'cathode'] as const

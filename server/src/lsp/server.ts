@@ -29,7 +29,22 @@ import {
   toTextEdits,
 } from './convert'
 
-export function startServer(connection: Connection): void {
+export interface ServerHost {
+  /** Read a file from disk by absolute path (Node); absent in the browser, where only open documents are read. */
+  readFile?: (path: string) => string | undefined
+}
+
+/** The file path of a `file:` URI, '/'-separated; undefined for other schemes. */
+function pathOf(uri: string): string | undefined {
+  if (!uri.startsWith('file://')) return undefined
+  try {
+    return decodeURIComponent(new URL(uri).pathname).replace(/^\/([A-Za-z]:)/, '$1')
+  } catch {
+    return undefined
+  }
+}
+
+export function startServer(connection: Connection, host: ServerHost = {}): void {
   const documents = new TextDocuments(TextDocument)
   const cache = new Map<string, { version: number; analysis: Analysis }>()
   /** Analysis options from the `cellrun.*` settings (percent in the settings, fraction in the core). */
@@ -38,15 +53,32 @@ export function startServer(connection: Connection): void {
   let canReadSettings = false
   let canRefreshHints = false
 
+  /** The workspace root from `initialize` (includes may not leave it). */
+  let root: string | undefined
+
+  /** Include options for a document: open documents are read first, then the disk. */
+  function includesFor(doc: TextDocument): ModelOptions['includes'] {
+    const file = pathOf(doc.uri)
+    if (!file) return undefined
+    return {
+      file,
+      root: root ?? file.slice(0, file.lastIndexOf('/')),
+      read: (path) => documents.all().find((d) => pathOf(d.uri) === path)?.getText() ?? host.readFile?.(path),
+    }
+  }
+
   function analysisOf(doc: TextDocument): Analysis {
     const hit = cache.get(doc.uri)
     if (hit && hit.version === doc.version) return hit.analysis
-    const analysis = analyze(doc.getText(), options)
+    const includes = includesFor(doc)
+    const analysis = analyze(doc.getText(), includes ? { ...options, includes } : options)
     cache.set(doc.uri, { version: doc.version, analysis })
     return analysis
   }
 
   connection.onInitialize((params) => {
+    const rootUri = params.workspaceFolders?.[0]?.uri ?? params.rootUri ?? undefined
+    root = rootUri ? pathOf(rootUri) : undefined
     canReadSettings = !!params.capabilities.workspace?.configuration
     canRefreshHints = !!params.capabilities.workspace?.inlayHint?.refreshSupport
     return {
@@ -93,7 +125,23 @@ export function startServer(connection: Connection): void {
     void connection.sendDiagnostics({ uri: document.uri, version: document.version, diagnostics: a.diagnostics.map((d) => toLspDiagnostic(a, d)) })
   }
 
-  documents.onDidChangeContent(({ document }) => publish(document))
+  /** A changed document, and every open document that includes it, are analysed again. */
+  function publishWithDependants(document: TextDocument): void {
+    publish(document)
+    const path = pathOf(document.uri)
+    if (!path) return
+    let any = false
+    for (const other of documents.all()) {
+      if (other.uri === document.uri) continue
+      if (!cache.get(other.uri)?.analysis.includedFiles.includes(path)) continue
+      cache.delete(other.uri)
+      publish(other)
+      any = true
+    }
+    if (any && canRefreshHints) void connection.languages.inlayHint.refresh()
+  }
+
+  documents.onDidChangeContent(({ document }) => publishWithDependants(document))
 
   documents.onDidClose(({ document }) => {
     cache.delete(document.uri)

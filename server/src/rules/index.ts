@@ -8,6 +8,7 @@ import { belowReversible } from './below-reversible'
 import { beyondFaraday } from './beyond-faraday'
 import { beyondSolubility } from './beyond-solubility'
 import { duplicateName } from './duplicate-name'
+import { includeFile } from './include-file'
 import { efficiencyOver100 } from './efficiency-over-100'
 import { missingElectrode } from './missing-electrode'
 import { outOfRange } from './out-of-range'
@@ -40,6 +41,7 @@ export const RULES: readonly Rule[] = [
   badReaction,
   unbalancedReaction,
   duplicateName,
+  includeFile,
   shadowsUnit,
   unknownKind,
   outsideCell,
