@@ -441,6 +441,11 @@ function bookkeep(input: EngineInput, r: EngineResult, full: boolean): Book {
       continue
     }
     const ne = s.chargeC / FARADAY
+    /** Hydrogen (cathode) or oxygen (anode) from water takes the electrons the main reaction leaves. */
+    const sideHydrogen = (electrons: number, main: string) =>
+      put({ formula: 'H2', electrons: 2, compartment: c, origin: 'cathode', gas: true, equation: '2 H₂O + 2 e⁻ → H₂ + 2 OH⁻', reason: `hydrogen takes the current ${main} leaves` }, electrons / 2)
+    const sideOxygen = (electrons: number, main: string) =>
+      put({ formula: 'O2', electrons: 4, compartment: a, origin: 'anode', gas: true, equation: '2 H₂O → O₂ + 4 H⁺ + 4 e⁻', reason: `oxygen takes the current ${main} leaves` }, electrons / 4)
     const eta = full ? 1 : Math.min(1, Math.max(0, s.efficiency))
     // --- cathode
     let hydroxide = 0 // mol OH⁻ made at the cathode
@@ -455,12 +460,12 @@ function bookkeep(input: EngineInput, r: EngineResult, full: boolean): Book {
       if (dep < wanted - 1e-15) notes.push(`${m.element}${sup(m.charge)} in ${c} ran out; the rest of the current evolves hydrogen`)
       put({ formula: m.element, electrons: m.charge, compartment: c, origin: 'cathode', gas: false, equation: cathode.equation, reason: cathode.reason }, dep)
       const h2e = ne - dep * m.charge
-      put({ formula: 'H2', electrons: 2, compartment: c, origin: 'cathode', gas: true, equation: '2 H₂O + 2 e⁻ → H₂ + 2 OH⁻', reason: 'hydrogen takes the current the deposition leaves' }, h2e / 2)
+      sideHydrogen(h2e, 'the deposition')
       hydroxide += h2e
     } else if (cathode.kind === 'stated') {
       const used = statedShare(cathode, cIons, eta * ne, c)
       for (const p of cathode.stated!) put({ formula: p.formula, electrons: 1 / p.perElectron, compartment: c, origin: 'cathode', gas: p.gas, equation: cathode.equation, reason: cathode.reason }, used * p.perElectron)
-      put({ formula: 'H2', electrons: 2, compartment: c, origin: 'cathode', gas: true, equation: '2 H₂O + 2 e⁻ → H₂ + 2 OH⁻', reason: 'hydrogen takes the current the stated reaction leaves' }, (ne - used) / 2)
+      sideHydrogen(ne - used, 'the stated reaction')
       hydroxide = used * cathode.statedIons! + (ne - used)
     } else {
       put({ formula: 'H2', electrons: 2, compartment: c, origin: 'cathode', gas: true, equation: cathode.equation, reason: cathode.reason }, ne / 2)
@@ -487,12 +492,12 @@ function bookkeep(input: EngineInput, r: EngineResult, full: boolean): Book {
       cl.mol -= clPerCl2 * chlorine
       if (chlorine < wanted - 1e-15) notes.push(`chloride in ${a} ran out; the rest of the current evolves oxygen`)
       const o2e = ne - 2 * chlorine
-      put({ formula: 'O2', electrons: 4, compartment: a, origin: 'anode', gas: true, equation: '2 H₂O → O₂ + 4 H⁺ + 4 e⁻', reason: 'oxygen takes the current the chlorine leaves' }, o2e / 4)
+      sideOxygen(o2e, 'the chlorine')
       protons = o2e
     } else if (anode.kind === 'stated') {
       const used = statedShare(anode, aIons, eta * ne, a)
       for (const p of anode.stated!) put({ formula: p.formula, electrons: 1 / p.perElectron, compartment: a, origin: 'anode', gas: p.gas, equation: anode.equation, reason: anode.reason }, used * p.perElectron)
-      put({ formula: 'O2', electrons: 4, compartment: a, origin: 'anode', gas: true, equation: '2 H₂O → O₂ + 4 H⁺ + 4 e⁻', reason: 'oxygen takes the current the stated reaction leaves' }, (ne - used) / 4)
+      sideOxygen(ne - used, 'the stated reaction')
       protons = used * anode.statedIons! + (ne - used)
     } else {
       put({ formula: 'O2', electrons: 4, compartment: a, origin: 'anode', gas: true, equation: anode.equation, reason: anode.reason }, ne / 4)

@@ -414,6 +414,11 @@ const WATER_NAMES = new Set(['water', 'H2O'])
 class Evaluator {
   constructor(private readonly m: Model) {}
 
+  /** A computed value shown at the end of a statement (its hint) and explained over it (its hover). */
+  private hintAt(at: { line: number; span: Span }, c: Omit<Computed, 'line' | 'span' | 'anchor'>): void {
+    this.m.computed.push({ line: at.line, span: at.span, anchor: at.span.end, ...c })
+  }
+
   quantity(
     n: LineNode,
     expr: Tok,
@@ -487,6 +492,7 @@ class Evaluator {
         this.alternate(n, item.alternate, r?.mol, f.molarMass, ff.isWater ? ['mass', 'amount', 'volume'] : ['mass', 'amount'], rhoW, `${ff.isWater ? 'water' : item.formula.text} charged`)
       }
       if (!r) continue
+      // A hint after each item, not at the end of the line.
       this.m.computed.push({
         line: n.line,
         span: item.span,
@@ -735,10 +741,7 @@ class Evaluator {
       }
       if (parts.length === 0) continue
       working.push(volumeL ? `V = ${fmt(volumeL * 1000, 4)} mL, ${volumeFrom}` : 'no compartment volume: concentrations need `compartment NAME VOLUME`')
-      this.m.computed.push({
-        line: node.line,
-        span: node.span,
-        anchor: node.span.end,
+      this.hintAt(node, {
         key: 'compartment.contents',
         label: `→ ${approx ? '≈ ' : ''}${parts.join(', ')} in ${comp.name}`,
         title: `Contents of ${comp.name}`,
@@ -869,10 +872,7 @@ class Evaluator {
         parts.push(`Σ ${fmt(t.chargeC / 3600)} A·h`)
         working.push(`all steps: Q = ${fmt(t.chargeC / 3600, 4)} A·h = ${fmt(t.chargeC, 4)} C, n(e⁻) = ${fmt(t.electronMol, 4)} mol`)
       }
-      this.m.computed.push({
-        line: s.line,
-        span: s.span,
-        anchor: s.span.end,
+      this.hintAt(s, {
         key: 'step.charge',
         label: parts.join(' · '),
         value: Q,
@@ -888,10 +888,7 @@ class Evaluator {
       const parts = [formatDuration(t.seconds), `${fmt(t.chargeC / 3600)} A·h`, `${fmt(t.electronMol)} mol e⁻`]
       if (t.energyJ !== undefined) parts.push(`${fmt(t.energyJ / 3600)} W·h`)
       const counted = this.m.steps.filter((s) => s.chargeC !== undefined).length
-      this.m.computed.push({
-        line: run.line,
-        span: run.span,
-        anchor: run.span.end,
+      this.hintAt(run, {
         key: 'run.totals',
         label: parts.join(' · '),
         value: t.chargeC,
@@ -985,10 +982,7 @@ class Evaluator {
       if (st.product) parts.push(`CE ${fmt(st.product.efficiency * 100)} %`)
       for (const c of st.compartments) parts.push(`pH ${c.ph.toFixed(1)} ${c.name}`)
       if (Math.abs(st.temperatureK - m.temperatureK) > 0.5) parts.push(`${fmt(st.temperatureK - ZERO_CELSIUS)} °C`)
-      m.computed.push({
-        line: st.line,
-        span: node.span,
-        anchor: node.span.end,
+      this.hintAt(node, {
         key: 'step.sim',
         label: `sim: ${parts.join(' · ')}`,
         title: 'Simulated state at the end of this step',
@@ -1015,10 +1009,7 @@ class Evaluator {
       const end = sim.final.find((c) => c.name === main.compartment)?.main
       const overall = (formed * main.electrons) / electrons
       const last = sim.steps[sim.steps.length - 1]
-      m.computed.push({
-        line: run.line,
-        span: run.span,
-        anchor: run.span.end,
+      this.hintAt(run, {
         key: 'run.sim',
         label:
           `sim end: ` +
@@ -1040,10 +1031,7 @@ class Evaluator {
     }
     for (const ev of sim.events) {
       const node = m.tree.lines[ev.line]
-      m.computed.push({
-        line: ev.line,
-        span: node.span,
-        anchor: node.span.end,
+      this.hintAt(node, {
         key: 'sim.event',
         label: `⚑ ${clock(ev.time)}: ${ev.message}`,
         title: 'Simulation event',
@@ -1070,10 +1058,7 @@ class Evaluator {
         const reached = sim.events.find((e) => e.kind === 'target-reached' && e.line >= 0 && e.message.includes(`${target.value} ${target.kind}`) && e.compartment === target.compartment)
         const end = sim.final.find((c) => c.name === target.compartment)?.main
         const endValue = end ? (target.kind === 'wt%' ? end.wtPercent : end.molPerL) : undefined
-        m.computed.push({
-          line: y.line,
-          span: node.span,
-          anchor: node.span.end,
+        this.hintAt(node, {
           key: 'expect.target',
           label: reached ? `sim: reached after ${formatDuration(reached.time)}` : `sim: not reached${endValue !== undefined ? ` (ends at ${fmt(endValue)} ${target.kind})` : ''}`,
           title: `Planned concentration of ${prettyFormula(main.formula)} (simulation)`,
@@ -1084,10 +1069,7 @@ class Evaluator {
       if (y.mol === undefined || q.kind === 'volume') continue
       const simCe = electrons > 0 ? ((formed * main.electrons) / electrons) * 100 : 0
       const label = y.kind === 'expect' ? `sim: ${fmt((formed + y.initialMol) * f.molarMass)} g at CE ${fmt(simCe)} %` : `sim CE ${fmt(simCe)} %`
-      m.computed.push({
-        line: y.line,
-        span: node.span,
-        anchor: node.span.end,
+      this.hintAt(node, {
         key: y.kind === 'expect' ? 'expect.sim' : 'observe.sim',
         label,
         value: y.kind === 'expect' ? (formed + y.initialMol) * f.molarMass : electrons > 0 ? (formed * main.electrons) / electrons : 0,
@@ -1131,10 +1113,7 @@ class Evaluator {
       if (!r) continue
       const e = m.electrodes.find((x) => x.role === r.role && x.compartment === r.compartment)!
       const node = m.tree.lines[e.line]
-      m.computed.push({
-        line: e.line,
-        span: node.span,
-        anchor: node.span.end,
+      this.hintAt(node, {
         key: `${r.role}.reaction`,
         label: r.equation,
         title: `${r.role === 'anode' ? 'Anode' : 'Cathode'} reaction`,
@@ -1147,10 +1126,7 @@ class Evaluator {
       m.voltages = v
       const cell = m.tree.lines.find((x) => x.kind === 'cell')
       if (cell) {
-        m.computed.push({
-          line: cell.line,
-          span: cell.span,
-          anchor: cell.span.end,
+        this.hintAt(cell, {
           key: 'cell.voltages',
           label: `E_rev ${fmt(v.reversible)} V · E_tn ${fmt(v.thermoneutral)} V`,
           value: v.reversible,
@@ -1169,10 +1145,7 @@ class Evaluator {
       const held = m.steps.find((x) => x.line === sp.line)
       if (v && held?.voltageV !== undefined && held.chargeC !== undefined && held.voltageV < v.reversible) {
         const node = m.tree.lines[sp.line]
-        m.computed.push({
-          line: sp.line,
-          span: node.span,
-          anchor: node.span.end,
+        this.hintAt(node, {
           key: 'step.products',
           label: '→ nothing forms below E_rev',
           title: 'Products of this step',
@@ -1210,10 +1183,7 @@ class Evaluator {
         [...shown.map((p) => `${amountText(p, p.mol, Vm)} ${prettyFormula(p.formula)}`), ...energyParts].join(' · ') +
         (sp.notes.length ? ' · ⚠ ' + sp.notes.length : '')
       const node = m.tree.lines[sp.line]
-      m.computed.push({
-        line: sp.line,
-        span: node.span,
-        anchor: node.span.end,
+      this.hintAt(node, {
         key: 'step.products',
         label,
         title: 'Products of this step',
@@ -1326,10 +1296,7 @@ class Evaluator {
         (y.initialMol > 0 ? ` incl. ${shown(y.initialMol)} charged` : '') +
         (y.feedLimited ? ' (feed-limited)' : '') +
         (formedMol !== undefined && formedMol >= 0 && y.maxMolEff > 0 ? ` · plan ${fmt((100 * formedMol) / y.maxMolEff)} % of max` : '')
-      this.m.computed.push({
-        line: n.line,
-        span: n.span,
-        anchor: n.span.end,
+      this.hintAt(n, {
         key: 'expect.max',
         label,
         value: (y.initialMol + y.maxMolEff) * M,
@@ -1344,10 +1311,7 @@ class Evaluator {
           (y.initialMol > 0 ? `(${fmt(y.mol!, 4)} − ${fmt(y.initialMol, 4)}) mol` : `${fmt(formedMol, 4)} mol`) +
           ` ÷ ${fmt(y.maxMol100, 4)} mol = ${fmt(ce * 100, 3)} %`,
       )
-      this.m.computed.push({
-        line: n.line,
-        span: n.span,
-        anchor: n.span.end,
+      this.hintAt(n, {
         key: 'observe.efficiency',
         label: `current efficiency ${fmt(ce * 100)} %`,
         value: ce,
