@@ -635,8 +635,26 @@ function parseInternal(text: string, suggest: boolean): Internal {
   return p.result()
 }
 
+/**
+ * Parsed formulas by text: the same few formulas are read over and over (by the model for every
+ * line that names one, by the simulation on every time step). The results are never changed by
+ * their users (counts is a ReadonlyMap), so one object can serve every caller.
+ */
+const parsedCache = new Map<string, Internal>()
+const PARSED_CACHE_LIMIT = 4096
+
 function safeParse(text: string): Internal {
   const t = typeof text === 'string' ? text : ''
+  let hit = parsedCache.get(t)
+  if (!hit) {
+    hit = safeParseUncached(t)
+    if (parsedCache.size >= PARSED_CACHE_LIMIT) parsedCache.clear()
+    parsedCache.set(t, hit)
+  }
+  return hit
+}
+
+function safeParseUncached(t: string): Internal {
   try {
     return parseInternal(t, true)
   } catch (e) {

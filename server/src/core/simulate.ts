@@ -222,10 +222,21 @@ class Solution {
     return this.amt.get(k) ?? 0
   }
   add(k: string, v: number): void {
+    if (v === 0) return
     const n = (this.amt.get(k) ?? 0) + v
     this.amt.set(k, n < 0 && n > -1e-12 ? 0 : n)
+    this.memo = undefined
+  }
+  /** Mass, main salt and volume of the current contents, worked out once per change (a time step reads them many times). */
+  private memo: { mass: number; main: ReturnType<Solution['mainSaltUncached']>; volume?: number } | undefined
+  private derived() {
+    if (!this.memo) this.memo = { mass: this.massUncached(), main: this.mainSaltUncached() }
+    return this.memo
   }
   massG(): number {
+    return this.derived().mass
+  }
+  private massUncached(): number {
     let m = 0
     for (const [k, v] of this.amt) m += v * (k === WATER ? M_WATER : species(k).mass)
     return m
@@ -235,6 +246,9 @@ class Solution {
   }
   /** The main solute as a salt/base/acid formula: the most plentiful cation with the most plentiful anion. */
   mainSalt(): { formula: string; mol: number; mass: number } | undefined {
+    return this.derived().main
+  }
+  private mainSaltUncached(): { formula: string; mol: number; mass: number } | undefined {
     let cat: [string, number] | undefined
     let an: [string, number] | undefined
     for (const [k, v] of this.amt) {
@@ -259,6 +273,11 @@ class Solution {
     return { formula, mol, mass: Number.isFinite(f.molarMass) ? f.molarMass : nc * species(cat[0]).mass + na * species(an[0]).mass }
   }
   volumeL(): number {
+    const d = this.derived()
+    d.volume ??= this.volumeUncached()
+    return d.volume
+  }
+  private volumeUncached(): number {
     const total = this.massG()
     const main = this.mainSalt()
     if (main && total > 0) {
@@ -512,6 +531,7 @@ export function simulate(input: SimInput): SimResult {
   const runStart = main ? main.measure(state) : 0
   const running = () => (main && runElectrons > 0 ? ((main.measure(state) - runStart) * main.electrons) / runElectrons : 0)
   const totalSeconds = input.steps.reduce((t, s) => t + (s.seconds ?? 0), 0)
+  const runTotal = input.steps.reduce((t, s) => t + ((s.currentA ?? 0) > 0 && (s.seconds ?? 0) > 0 ? (s.currentA! * s.seconds!) / FARADAY : 0), 0)
   const seriesEvery = Math.max(totalSeconds / 200, 1)
   let nextSeries = 0
 
@@ -523,13 +543,16 @@ export function simulate(input: SimInput): SimResult {
     if (seconds > 0 && I > 0) {
       let elapsed = 0
       const total = (I * seconds) / FARADAY
-      // At most 400 time steps per run step: enough for 2 % changes, cheap enough to run on every keystroke.
-      const floor = total / 400
+      // Time steps: at least 50 per run step, fewer when the step is a small part of a long run (a
+      // protocol of a thousand short steps costs about as much as one of ten); at most 400 per
+      // run step and 4,000 per run. Enough for 2 % changes, cheap enough for every keystroke.
+      const floor = Math.max(total / 400, runTotal / 4000)
+      const cap = Math.max(total / 50, runTotal / 200)
       while (elapsed < seconds - 1e-9) {
         result.iterations++
         // Adaptive: no reactant of the moment changes by more than 2 % in one step.
         const scale = reactingScale(input, a, c, depIon, total * 1e-3)
-        let dne = Math.max(floor, Math.min(total / 50, 0.02 * scale))
+        let dne = Math.max(floor, Math.min(cap, 0.02 * scale))
         let dt = (dne * FARADAY) / I
         if (elapsed + dt > seconds) {
           dt = seconds - elapsed

@@ -144,17 +144,33 @@ export function normalise(text: string): { text: string; map: number[] } {
   return { text: out.join(''), map }
 }
 
+const unitNames = new Map<string, boolean>()
 function isUnitName(name: string): boolean {
-  try {
-    return UnitClass.isValuelessUnit(name)
-  } catch {
-    return false
+  let known = unitNames.get(name)
+  if (known === undefined) {
+    try {
+      known = UnitClass.isValuelessUnit(name)
+    } catch {
+      known = false
+    }
+    if (unitNames.size >= CACHE_LIMIT) unitNames.clear()
+    unitNames.set(name, known)
   }
+  return known
 }
 
 interface NodeInfo {
   start: number
   end: number
+}
+
+const NAME_CHAR = /[\p{L}\p{N}_$]/u
+
+/** Whether the character at `i` (or the one just before it when `before`) belongs to a name; surrogate pairs are read whole. */
+function isNameChar(t: string, i: number, before: boolean): boolean {
+  if (i < 0 || i >= t.length) return false
+  const cp = before ? (i > 0 && /[\udc00-\udfff]/.test(t[i]) ? t.codePointAt(i - 1) : t.codePointAt(i)) : t.codePointAt(i)
+  return cp !== undefined && NAME_CHAR.test(String.fromCodePoint(cp))
 }
 
 function compile(text: string): CompileResult {
@@ -213,14 +229,14 @@ function compile(text: string): CompileResult {
   // Locate a symbol in the normalised text, scanning forward so repeated names map to successive places.
   let searchFrom = 0
   const locate = (name: string): NodeInfo => {
-    const escaped = name.replace(/[.*+?^${}()|[\]\\]/g, '\\$&')
-    const re = new RegExp(`(?<![\\p{L}\\p{N}_$])${escaped}(?![\\p{L}\\p{N}_$])`, 'gu')
-    re.lastIndex = searchFrom
-    const m = re.exec(norm.text)
-    if (!m) return whole
-    searchFrom = m.index + name.length
-    const start = back(m.index)
-    return { start, end: Math.min(text.length, Math.max(start + 1, back(m.index + name.length - 1) + 1)) }
+    const t = norm.text
+    let at = t.indexOf(name, searchFrom)
+    // A whole name only: not part of a longer name on either side.
+    while (at >= 0 && (isNameChar(t, at - 1, true) || isNameChar(t, at + name.length, false))) at = t.indexOf(name, at + 1)
+    if (at < 0) return whole
+    searchFrom = at + name.length
+    const start = back(at)
+    return { start, end: Math.min(text.length, Math.max(start + 1, back(at + name.length - 1) + 1)) }
   }
   const visit = (node: MathNode, level: number): void => {
     if (failure) return
