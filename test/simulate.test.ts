@@ -734,7 +734,9 @@ describe('events', () => {
 // ---- 7. cost -----------------------------------------------------------------------------------
 
 describe('cost', () => {
-  it('a 10-step, 24-hour membrane run: median analysis < 60 ms (budget 20 ms, 3× CI headroom), < 5000 time steps', () => {
+  // The time is measured by `npm run bench` (a benchmark, not a timed test); what is checked here
+  // is the work the simulation does, which is what makes it cheap enough for every keystroke.
+  it('a 10-step, 24-hour membrane run takes fewer than 5,000 time steps and still ends at 24 h', () => {
     const p: Protocol = {
       conditions: '30 degC',
       cell: membrane('mmo-titanium', 'nickel'),
@@ -742,21 +744,27 @@ describe('cost', () => {
       steps: Array.from({ length: 10 }, (_, i) => `step s${i + 1}: current 5 A for 2 h 24 min`),
       extra: ['expect KOH 30 wt% in catholyte'],
     }
-    const text = protocolText(p)
-    for (let i = 0; i < 5; i++) analyze(text) // warm-up: JIT, caches
-    const times: number[] = []
-    for (let i = 0; i < 20; i++) {
-      const t = performance.now()
-      analyze(text)
-      times.push(performance.now() - t)
-    }
-    times.sort((x, y) => x - y)
-    const median = (times[9] + times[10]) / 2
-    const s = sim(analyze(text))
-    console.log(`10-step 24 h membrane run: median ${median.toFixed(2)} ms over 20 runs (min ${times[0].toFixed(2)}, max ${times[19].toFixed(2)}), ${s.iterations} time steps`)
+    const s = sim(analyze(protocolText(p)))
     expect(s.steps.at(-1)!.endTime).toBeCloseTo(24 * HOUR, 6)
-    expect(median).toBeLessThan(60)
     expect(s.iterations).toBeLessThan(5000)
+  })
+
+  it('a run of 1,000 short steps costs about as much as one of ten: at most ~1,000 time steps plus one per step', () => {
+    const p: Protocol = {
+      conditions: '30 degC',
+      cell: membrane('mmo-titanium', 'nickel'),
+      charges: { anolyte: [['K2CO3', 5.2], ['water', 1400]], catholyte: [['KOH', 0.36], ['water', 800]] },
+      steps: Array.from({ length: 1000 }, (_, i) => `step s${i + 1}: current 5 A for 86.4 s`),
+    }
+    const s = sim(analyze(protocolText(p)))
+    expect(s.steps).toHaveLength(1000)
+    expect(s.steps.at(-1)!.endTime).toBeCloseTo(24 * HOUR, 3)
+    expect(s.iterations).toBeLessThan(1000 + 1000 + 200)
+    // Coarser time steps must not change the outcome: the same 120 A·h in one step gives the same
+    // hydroxide within 1 % (the physics does not know how the protocol splits the run).
+    const one = sim(analyze(protocolText({ ...p, steps: ['step all: current 5 A for 24 h'] })))
+    const koh = (r: typeof s) => r.final.find((c) => c.name === 'catholyte')!.species['OH^-']
+    expect(Math.abs(koh(s) - koh(one)) / koh(one)).toBeLessThan(0.01)
   })
 })
 

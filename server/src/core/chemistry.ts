@@ -98,6 +98,15 @@ export interface SaltIons {
 
 /** Split a neutral salt into its ions (hydrate water ignored): CuSO4·5H2O -> Cu^2+ + SO4^2-. */
 export function saltIons(f: Formula): SaltIons | undefined {
+  // Formulas are shared, unchanging objects (see formula.ts): their ions are read once.
+  let known = saltIonsOf.get(f)
+  if (known === undefined) saltIonsOf.set(f, (known = saltIonsUncached(f) ?? null))
+  return known ?? undefined
+}
+
+const saltIonsOf = new WeakMap<Formula, SaltIons | null>()
+
+function saltIonsUncached(f: Formula): SaltIons | undefined {
   if (!f.ok || f.charge !== 0) return undefined
   const counts = new Map(f.counts)
   if (f.hydrateWater > 0) {

@@ -134,7 +134,16 @@ export interface EngineResult {
 }
 
 /** The ions a formula gives in water, per formula unit; undefined for a molecule or an unknown. */
-export function ionsOf(f: Formula): { cation: string; cationCharge: number; cationCount: number; anion: string; anionCharge: number; anionCount: number } | undefined {
+type IonsOf = { cation: string; cationCharge: number; cationCount: number; anion: string; anionCharge: number; anionCount: number }
+const ionsOfCache = new WeakMap<Formula, IonsOf | null>()
+
+export function ionsOf(f: Formula): IonsOf | undefined {
+  let known = ionsOfCache.get(f)
+  if (known === undefined) ionsOfCache.set(f, (known = ionsOfUncached(f) ?? null))
+  return known ?? undefined
+}
+
+function ionsOfUncached(f: Formula): IonsOf | undefined {
   const s = saltIons(f)
   if (s) return s
   // Acids HnX with a known anion.

@@ -5,8 +5,13 @@ import { FARADAY, GAS_CONSTANT, DEFAULT_PRESSURE_PA, DEFAULT_TEMPERATURE_K, ZERO
 import { KNOWN_GASES, productReaction } from './chemistry'
 import { balance, checkBalance, parseReaction, type BalanceCheck, type BalanceResult, type ParsedReaction } from './balance'
 import { runEngine, sameSubstance, type EngineResult, type Product } from './engine'
+import { ResultCache } from './memo'
 import { cellVoltages, type CellVoltages } from './voltage'
 import { simulate, type SimResult, type SimTarget } from './simulate'
+
+/** The engine and the simulation for an unchanged chemistry are taken from the last analyses (see memo.ts). */
+export const engineRuns = new ResultCache(runEngine)
+export const simulationRuns = new ResultCache(simulate)
 import { DENSITY_20C, massFractionFromMassConc, massFractionFromMolarity, solutionDensity } from './data/density'
 import { SOLUBILITY, solubilityAt } from './data/solubility'
 import type { Severity } from './diagnostics'
@@ -370,20 +375,27 @@ export function buildModel(tree: SyntaxTree, options: ModelOptions = {}): Model 
     }
   }
   // Pass 3: charges, steps, yields, handling.
+  const T = ((globalThis as any).__T ??= {}); let t0 = performance.now(); const lap = (k: string) => { const t = performance.now(); (T[k] ??= []).push(t - t0); t0 = t }
   for (const n of tree.lines) {
     if (n.kind === 'charge') ev.charge(n)
     else if (n.kind === 'step') ev.step(n)
     else if (n.kind === 'handling') m.handling.push({ line: n.line, type: n.type, text: n.text })
     else if (n.kind === 'reaction') m.reactions.push(statedReaction(n))
   }
+  lap('pass3')
   ev.compartmentSummaries()
   ev.stepTotals()
+  lap('stepTotals')
   ev.chemistry()
+  lap('chemistry')
   for (const n of tree.lines) {
     if (n.kind === 'expect' || n.kind === 'observe') ev.yieldLine(n)
   }
+  lap('yields')
   ev.simulation(options.efficiencyFloor ?? 0.8)
+  lap('simulation')
   ev.simulatedYields()
+  lap('simYields')
   return m
 }
 
@@ -825,7 +837,8 @@ class Evaluator {
     const t = this.m.totals
     let energyKnown = true
     let energy = 0
-    const lastCharged = this.m.steps.filter((x) => x.chargeC !== undefined).at(-1)
+    const charged = this.m.steps.filter((x) => x.chargeC !== undefined)
+    const lastCharged = charged.at(-1)
     for (const s of this.m.steps) {
       if (s.seconds !== undefined) t.seconds += s.seconds
       if (s.chargeC === undefined) {
@@ -868,7 +881,7 @@ class Evaluator {
         parts.push(`${fmt(E / 3600)} W·h`)
         working.push(`E = U·Q = ${fmt(s.voltageV, 4)} V × ${fmt(Ah, 4)} A·h = ${fmt(E / 3600, 4)} W·h`)
       } else energyKnown = false
-      if (s === lastCharged && this.m.steps.filter((x) => x.chargeC !== undefined).length > 1) {
+      if (s === lastCharged && charged.length > 1) {
         parts.push(`Σ ${fmt(t.chargeC / 3600)} A·h`)
         working.push(`all steps: Q = ${fmt(t.chargeC / 3600, 4)} A·h = ${fmt(t.chargeC, 4)} C, n(e⁻) = ${fmt(t.electronMol, 4)} mol`)
       }
@@ -951,7 +964,7 @@ class Evaluator {
     const cathode = merged ? { ...e.cathode, compartment: e.anode.compartment } : e.cathode
     const sep = m.separators.find((x) => x.between.includes(e.anode!.compartment) && x.between.includes(e.cathode!.compartment))
     const v = m.voltages
-    const sim = simulate({
+    const sim = simulationRuns.get({
       compartments,
       anode: e.anode,
       cathode,
@@ -1049,12 +1062,13 @@ class Evaluator {
     const f = parseFormula(main.formula)
     const formed = sim.steps.reduce((t, x) => t + (x.product?.mol ?? 0), 0)
     const electrons = sim.steps.reduce((t, x) => t + x.electronMol, 0)
+    const targetAt = new Map(m.targets.map((t) => [t.line, t]))
     for (const y of m.yields) {
       if (!sameSubstance(main.formula, y.formula.formula)) continue
       const node = m.tree.lines[y.line]
       const q = y.quantity
       if (q.kind === 'mass-fraction' || q.kind === 'molarity') {
-        const target = m.targets.find((t) => t.line === y.line)!
+        const target = targetAt.get(y.line)!
         const reached = sim.events.find((e) => e.kind === 'target-reached' && e.line >= 0 && e.message.includes(`${target.value} ${target.kind}`) && e.compartment === target.compartment)
         const end = sim.final.find((c) => c.name === target.compartment)?.main
         const endValue = end ? (target.kind === 'wt%' ? end.wtPercent : end.molPerL) : undefined
@@ -1087,7 +1101,7 @@ class Evaluator {
   chemistry(): void {
     const m = this.m
     const run = (below?: number) =>
-      runEngine({
+      engineRuns.get({
         compartments: [...m.compartments.values()].map((c) => ({
           name: c.name,
           ...(c.volumeL !== undefined ? { volumeL: c.volumeL } : {}),
@@ -1141,8 +1155,9 @@ class Evaluator {
         })
       }
     }
+    const stepAt = new Map(m.steps.map((x) => [x.line, x]))
     for (const sp of engine.steps) {
-      const held = m.steps.find((x) => x.line === sp.line)
+      const held = stepAt.get(sp.line)
       if (v && held?.voltageV !== undefined && held.chargeC !== undefined && held.voltageV < v.reversible) {
         const node = m.tree.lines[sp.line]
         this.hintAt(node, {
@@ -1198,6 +1213,13 @@ class Evaluator {
 
   private litresPerMol(): number {
     return ((GAS_CONSTANT * this.m.temperatureK) / this.m.pressurePa) * 1000
+  }
+
+  private ranOut: boolean | undefined
+  /** Whether any step of the engine's bookkeeping ran out of a feed (worked out once, asked for every yield line). */
+  private feedRanOut(): boolean {
+    this.ranOut ??= !!this.m.engine?.steps.some((s) => s.notes.length > 0)
+    return this.ranOut
   }
 
   yieldLine(n: Extract<LineNode, { kind: 'expect' | 'observe' }>): void {
@@ -1257,7 +1279,7 @@ class Evaluator {
       y.maxMol100 = this.m.totals.electronMol / here[0].electrons
       // Only the run's main products are capped by a feed; hydrogen and oxygen take the rest of the current.
       const side = here[0].formula === 'H2' || here[0].formula === 'O2'
-      y.feedLimited = !side && engine!.steps.some((s) => s.notes.length > 0)
+      y.feedLimited = !side && this.feedRanOut()
     } else {
       if (!fallback || !fallback.ok) {
         if (f.ok && fallback) y.noReaction = fallback.why

@@ -408,7 +408,7 @@ function equilibrate(s: Solution, dt: number, T: number, gases?: Record<string, 
 }
 
 /** The salts with solubility data, with their ions, read once. */
-let saltTable: { key: string; cat: string; an: string; nc: number; na: number; M: number }[] | undefined
+let saltTable: { key: string; cat: string; an: string; nc: number; na: number; M: number; solT?: number; sol?: ReturnType<typeof solubilityAt> }[] | undefined
 function salts() {
   if (!saltTable) {
     saltTable = []
@@ -428,7 +428,12 @@ function precipitate(s: Solution, T: number): string[] {
   for (const x of salts()) {
     const present = Math.min(s.get(x.cat) / x.nc, s.get(x.an) / x.na)
     if (!(present > 0) && !(s.solids.get(x.key) ?? 0)) continue
-    const sol = solubilityAt(x.key, T - 273.15)
+    // The temperature changes only when the cell heats: read the table again only then.
+    if (x.solT !== T) {
+      x.solT = T
+      x.sol = solubilityAt(x.key, T - 273.15)
+    }
+    const sol = x.sol
     if (!sol || sol.extrapolated) continue
     water ??= s.waterG()
     const max = (sol.gPer100gWater * water) / 100 / x.M
@@ -545,8 +550,8 @@ export function simulate(input: SimInput): SimResult {
       const total = (I * seconds) / FARADAY
       // Time steps: at least 50 per run step, fewer when the step is a small part of a long run (a
       // protocol of a thousand short steps costs about as much as one of ten); at most 400 per
-      // run step and 4,000 per run. Enough for 2 % changes, cheap enough for every keystroke.
-      const floor = Math.max(total / 400, runTotal / 4000)
+      // run step and about 1,000 per run. Enough for 2 % changes, cheap enough for every keystroke.
+      const floor = Math.max(total / 400, runTotal / 1000)
       const cap = Math.max(total / 50, runTotal / 200)
       while (elapsed < seconds - 1e-9) {
         result.iterations++

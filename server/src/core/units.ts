@@ -45,6 +45,8 @@ export type Value = number | Unit
 
 export const MAX_EXPRESSION_LENGTH = 400
 export const MAX_NESTING = 32
+/** The largest power of a unit (or base dimension) a value may carry: `(1 A)^1e9` is refused, `cm^-2` and `m^3` pass. */
+export const MAX_UNIT_POWER = 12
 
 const ALLOWED_OPERATORS = new Set(['add', 'subtract', 'multiply', 'divide', 'pow', 'unaryMinus', 'unaryPlus'])
 const ALLOWED_FUNCTIONS = new Set(['sqrt', 'abs'])
@@ -69,6 +71,11 @@ interface Compiled {
   names: { name: string; start: number; end: number; isUnit: boolean }[]
   /** Unit symbols used, which must be placed in the scope as units (so `min` is minutes, not a function). */
   unitSymbols: string[]
+  /**
+   * The last evaluation: the scope values it read (by identity) and its result. A line that did not
+   * change, with named values that did not change, is not evaluated again on the next analysis.
+   */
+  last?: { inputs: (Value | undefined)[]; result: EvalResult }
 }
 
 type CompileResult = Compiled | { ok: false; failure: ExprFailure }
@@ -304,11 +311,25 @@ function compile(text: string): CompileResult {
   if (failure) return { ok: false, failure }
   let code: Compiled['code']
   try {
-    code = root.compile() as Compiled['code']
+    const inner = root.compile() as Compiled['code']
+    // A unit raised to a huge power (`1 m^1e9`, `(1 A)^x` with a large `x`) has a finite value but no
+    // meaning: refuse it here, whatever the exponent came from (the caller reports what this throws).
+    code = { evaluate: (scope) => refuseHugePowers(inner.evaluate(scope)) }
   } catch (e) {
     return { ok: false, failure: { reason: 'syntax', message: String(e instanceof Error ? e.message : e), ...whole } }
   }
   return { ok: true, code, names, unitSymbols: [...unitSymbols] }
+}
+
+function refuseHugePowers(v: unknown): unknown {
+  if (!isUnit(v)) return v
+  const tooBig = (p: number) => !(Math.abs(p) <= MAX_UNIT_POWER)
+  if (v.units.some((u) => tooBig(u.power)) || v.dimensions.some(tooBig)) {
+    let units = v.formatUnits()
+    if (units.length > 40) units = `${units.slice(0, 40)}…`
+    throw new Error(`a unit raised to a power beyond ${MAX_UNIT_POWER} (${units}) is not allowed`)
+  }
+  return v
 }
 
 function describeNode(type: string): string {
@@ -364,6 +385,15 @@ function unitSymbolValue(name: string): Unit {
 export function evaluateExpression(text: string, scope: ReadonlyMap<string, Value>): EvalResult {
   const c = compiled(text)
   if (!c.ok) return c
+  const inputs = c.names.map((n) => scope.get(n.name))
+  const last = c.last
+  if (last && last.inputs.length === inputs.length && last.inputs.every((v, i) => v === inputs[i])) return last.result
+  const result = evaluateCompiled(text, c, scope)
+  c.last = { inputs, result }
+  return result
+}
+
+function evaluateCompiled(text: string, c: Compiled, scope: ReadonlyMap<string, Value>): EvalResult {
   const s = new Map<string, unknown>()
   for (const u of c.unitSymbols) s.set(u, unitSymbolValue(u))
   for (const n of c.names) {
@@ -486,6 +516,18 @@ const kindRefs: [Kind, Unit][] = (Object.keys(KIND_UNIT) as Exclude<Kind, 'dimen
 /** The kind of a value, or 'other' when it matches none we know. */
 export function kindOf(v: Value): Kind | 'other' {
   if (typeof v === 'number') return 'dimensionless'
+  let k = kinds.get(v)
+  if (k === undefined) {
+    k = kindOfUncached(v)
+    kinds.set(v, k)
+  }
+  return k
+}
+
+/** Values are immutable and shared between analyses (see `last` above): their kind is worked out once. */
+const kinds = new WeakMap<Unit, Kind | 'other'>()
+
+function kindOfUncached(v: Unit): Kind | 'other' {
   for (const [k, ref] of kindRefs) if (v.equalBase(ref)) return k
   if (v.dimensions.every((d) => d === 0)) return 'dimensionless'
   return 'other'
@@ -494,8 +536,17 @@ export function kindOf(v: Value): Kind | 'other' {
 /** The number of `unit` in a value (e.g. toNumber(v, 'A')); plain numbers pass through. */
 export function toNumber(v: Value, unit: string): number {
   if (typeof v === 'number') return v
-  return v.toNumber(unit)
+  let byUnit = numbers.get(v)
+  if (!byUnit) numbers.set(v, (byUnit = new Map()))
+  let n = byUnit.get(unit)
+  if (n === undefined) {
+    n = v.toNumber(unit)
+    byUnit.set(unit, n)
+  }
+  return n
 }
+
+const numbers = new WeakMap<Unit, Map<string, number>>()
 
 /** Value in the kind's stored unit. */
 export function inKindUnit(v: Value, kind: Kind): number {
@@ -598,7 +649,11 @@ export function fmt(n: number, sig = labelFigures): string {
 }
 
 function stripZeros(s: string): string {
-  return s.includes('.') ? s.replace(/\.?0+$/, '') : s
+  if (!s.includes('.')) return s
+  let end = s.length
+  while (s.charCodeAt(end - 1) === 48 /* 0 */) end--
+  if (s.charCodeAt(end - 1) === 46 /* . */) end--
+  return s.slice(0, end)
 }
 
 /** The disabled functions, exported so tests can prove they stay disabled. */
