@@ -17,27 +17,140 @@ export function parse(text: string, index = new LineIndex(text)): SyntaxTree {
   const lines: LineNode[] = []
   let inCell = false
   for (let line = 0; line < index.lineCount; line++) {
-    let node: LineNode
-    try {
-      node = parseLine(index.lineText(line), index.lineStart(line), line, inCell)
-    } catch (e) {
-      // Defensive: a bug in a line parser must not take the document down.
-      const start = index.lineStart(line)
-      const end = index.lineEnd(line)
-      node = {
-        kind: 'error',
-        line,
-        indent: 0,
-        span: { start, end },
-        message: `internal parser error: ${e instanceof Error ? e.message : String(e)}`,
-        errorSpan: { start, end },
-      }
-    }
-    if (node.kind === 'cell') inCell = true
-    else if (node.kind !== 'blank' && node.indent === 0) inCell = false
+    const node = parseOne(index, line, inCell)
+    inCell = cellStateAfter(node, inCell)
     lines.push(node)
   }
   return { text, lines }
+}
+
+function parseOne(index: LineIndex, line: number, inCell: boolean): LineNode {
+  try {
+    return parseLine(index.lineText(line), index.lineStart(line), line, inCell)
+  } catch (e) {
+    // Defensive: a bug in a line parser must not take the document down.
+    const start = index.lineStart(line)
+    const end = index.lineEnd(line)
+    return {
+      kind: 'error',
+      line,
+      indent: 0,
+      span: { start, end },
+      message: `internal parser error: ${e instanceof Error ? e.message : String(e)}`,
+      errorSpan: { start, end },
+    }
+  }
+}
+
+/** Whether the next line is inside a `cell` block: the only state carried from line to line. */
+function cellStateAfter(node: LineNode, inCell: boolean): boolean {
+  if (node.kind === 'cell') return true
+  if (node.kind !== 'blank' && node.indent === 0) return false
+  return inCell
+}
+
+/**
+ * Parse `text`, an edited version of `prev.text`, reusing the nodes of the lines the edit did not
+ * touch: lines before the edit are taken as they are, lines after it are moved to their new
+ * offsets and line numbers. The result is the same as `parse(text)` (a property test checks it
+ * over random edit sequences); only the changed lines, and a line either side, are read again.
+ */
+export function reparse(prev: { text: string; tree: SyntaxTree; index: LineIndex }, text: string, index = new LineIndex(text)): SyntaxTree {
+  const old = prev.text
+  if (old === text) return { text, lines: prev.tree.lines }
+  if (prev.tree.lines.length !== prev.index.lineCount) return parse(text, index)
+  // The common prefix and suffix (not overlapping) of the two texts, in UTF-16 units.
+  const max = Math.min(old.length, text.length)
+  let p = 0
+  while (p < max && old.charCodeAt(p) === text.charCodeAt(p)) p++
+  let q = 0
+  while (q < max - p && old.charCodeAt(old.length - 1 - q) === text.charCodeAt(text.length - 1 - q)) q++
+  // Lines wholly before the change keep their nodes. One line of margin: a line break may be half of
+  // a changed "\r\n", and a line's end depends on its break.
+  const firstDirty = Math.max(0, index.lineOf(p) - 1)
+  const lines: LineNode[] = prev.tree.lines.slice(0, firstDirty)
+  let inCell = false
+  for (const n of lines) inCell = cellStateAfter(n, inCell)
+  // Old lines wholly inside the common suffix (again with a line of margin) may be moved.
+  const shift = text.length - old.length
+  const oldSuffixStart = old.length - q
+  let firstKept = prev.index.lineCount
+  for (let j = prev.index.lineOf(oldSuffixStart) + 2; j < prev.index.lineCount; j++) {
+    if (prev.index.lineStart(j) >= oldSuffixStart + 1) {
+      firstKept = j
+      break
+    }
+  }
+  const lineShift = index.lineCount - prev.index.lineCount
+  // The cell state entering each old line, to know when the new parse has caught up with the old.
+  const oldStates: boolean[] = []
+  let st = false
+  for (const n of prev.tree.lines) {
+    oldStates.push(st)
+    st = cellStateAfter(n, st)
+  }
+  let line = firstDirty
+  for (; line < index.lineCount; line++) {
+    const j = line - lineShift
+    if (j >= firstKept && j < prev.tree.lines.length && oldStates[j] === inCell) break
+    const node = parseOne(index, line, inCell)
+    inCell = cellStateAfter(node, inCell)
+    lines.push(node)
+  }
+  for (; line < index.lineCount; line++) {
+    const n = prev.tree.lines[line - lineShift]
+    lines.push(shift === 0 && lineShift === 0 ? n : moved(n, shift, lineShift))
+  }
+  return { text, lines }
+}
+
+/** A copy of a node with every offset moved by `shift` and its line by `lineShift`. */
+function moved<T>(v: T, shift: number, lineShift: number): T {
+  if (Array.isArray(v)) return v.map((x) => moved(x, shift, lineShift)) as T
+  if (typeof v !== 'object' || v === null) return v
+  const o = v as Record<string, unknown>
+  if (typeof o.start === 'number' && typeof o.end === 'number' && Object.keys(o).length === 2) {
+    return { start: o.start + shift, end: o.end + shift } as T
+  }
+  const out: Record<string, unknown> = {}
+  for (const k in o) {
+    const x = o[k]
+    out[k] = k === 'line' && typeof x === 'number' ? x + lineShift : typeof x === 'object' ? moved(x, shift, lineShift) : x
+  }
+  return out as T
+}
+
+const STATEMENT_SET: ReadonlySet<string> = new Set(STATEMENT_KEYWORDS)
+const CELL_SET: ReadonlySet<string> = new Set(CELL_KEYWORDS)
+// Sticky patterns (flag y) match at lastIndex: no copy of the rest of the line per token, so a
+// megabyte line is read in time proportional to its length.
+const KEYWORD_RE = /[A-Za-z][A-Za-z-]*/y
+const IDENT_RE = /[A-Za-z_][A-Za-z0-9_-]*/y
+const WORD_RE = /[^\s,:]+/y
+const LETTERS_RE = /[A-Za-z-]+/y
+const SPACE_OR_STOP_RE = /[\s,:]/g
+
+/** White space at `i`, as `\s` in a pattern reads it (ASCII first, the rest by the pattern). */
+function isSpace(s: string, i: number): boolean {
+  const c = s.charCodeAt(i)
+  if (c === 32 || (c >= 9 && c <= 13)) return true
+  return c > 127 && /\s/.test(s[i])
+}
+
+const standaloneWords = new Map<string, RegExp>()
+/** `\s+WORD` followed by white space or the end, searched from lastIndex (flag g). */
+function standaloneWord(word: string): RegExp {
+  let re = standaloneWords.get(word)
+  if (!re) standaloneWords.set(word, (re = new RegExp(`\\s+${word}(?=\\s|$)`, 'g')))
+  return re
+}
+
+const wordLists = new Map<readonly string[], RegExp>()
+/** One of `words`, whole, exactly at lastIndex (flag y). */
+function wordsAt(words: readonly string[]): RegExp {
+  let re = wordLists.get(words)
+  if (!re) wordLists.set(words, (re = new RegExp(`(?:${words.join('|')})(?![\\w-])`, 'y')))
+  return re
 }
 
 /** Where the comment starts (`#` outside double quotes), or -1. */
@@ -72,12 +185,13 @@ function parseLine(raw: string, base: number, line: number, inCell: boolean): Li
   const common = { line, indent, span, ...(comment ? { comment } : {}) }
   if (content.trim() === '') return { kind: 'blank', ...common }
 
-  const kwMatch = /^[A-Za-z][A-Za-z-]*/.exec(content.slice(indent))
+  KEYWORD_RE.lastIndex = indent
+  const kwMatch = KEYWORD_RE.exec(content)
   const kwText = kwMatch ? kwMatch[0] : ''
   const keyword: Tok = { text: kwText, span: { start: base + indent, end: base + indent + kwText.length } }
   const s = new Cursor(content, base, indent + kwText.length)
   try {
-    if (!kwMatch || !(STATEMENT_KEYWORDS as readonly string[]).includes(kwText)) {
+    if (!kwMatch || !STATEMENT_SET.has(kwText)) {
       const word = content.slice(indent).split(/[\s:]/)[0]
       const guess = closest(word, STATEMENT_KEYWORDS)
       throw new LineError(
@@ -87,7 +201,7 @@ function parseLine(raw: string, base: number, line: number, inCell: boolean): Li
         guess ? { start: indent, end: indent + word.length, newText: guess, title: `Change to \`${guess}\`` } : undefined,
       )
     }
-    const isCellChild = (CELL_KEYWORDS as readonly string[]).includes(kwText)
+    const isCellChild = CELL_SET.has(kwText)
     const childOfCell = isCellChild && inCell && indent > 0
     const k = { ...common, keyword }
     switch (kwText) {
@@ -376,12 +490,12 @@ function splitWords(t: Tok, words: readonly string[]): Tok[] {
   const out: Tok[] = []
   let depth = 0
   let from = 0
-  const re = new RegExp(`^(?:${words.join('|')})(?![\\w-])`)
+  const re = wordsAt(words)
   for (let i = 0; i < t.text.length; i++) {
     const c = t.text[i]
     if (c === '(' || c === '[') depth++
     else if (c === ')' || c === ']') depth--
-    else if (depth === 0 && i > from && /\s/.test(t.text[i - 1]) && re.test(t.text.slice(i))) {
+    else if (depth === 0 && i > from && isSpace(t.text, i - 1) && ((re.lastIndex = i), re.test(t.text))) {
       out.push(trimTok(t, from, i))
       from = i
     }
@@ -411,23 +525,25 @@ class Cursor {
   }
 
   ws(): void {
-    while (this.pos < this.s.length && /\s/.test(this.s[this.pos])) this.pos++
+    while (this.pos < this.s.length && isSpace(this.s, this.pos)) this.pos++
   }
 
   /** At least one space, or the line is incomplete. */
   ws1(what: string): void {
     if (this.pos >= this.s.length) throw new LineError(`expected ${what}`, this.pos)
-    if (!/\s/.test(this.s[this.pos])) throw new LineError(`expected a space before ${what}`, this.pos)
+    if (!isSpace(this.s, this.pos)) throw new LineError(`expected a space before ${what}`, this.pos)
     this.ws()
   }
 
+  /** `re` is sticky (flag y): it matches at the cursor without copying the rest of the line. */
   private match(re: RegExp): string | null {
-    const m = re.exec(this.s.slice(this.pos))
+    re.lastIndex = this.pos
+    const m = re.exec(this.s)
     return m ? m[0] : null
   }
 
   ident(what: string): Tok {
-    const m = this.match(/^[A-Za-z_][A-Za-z0-9_-]*/)
+    const m = this.match(IDENT_RE)
     if (!m) throw new LineError(`expected ${what}`, this.pos, this.nextSpace())
     const t = this.tok(this.pos, this.pos + m.length)
     this.pos += m.length
@@ -436,7 +552,7 @@ class Cursor {
 
   /** A word: anything up to white space, a comma or a colon. */
   word(what: string): Tok {
-    const m = this.match(/^[^\s,:]+/)
+    const m = this.match(WORD_RE)
     if (!m) throw new LineError(`expected ${what}`, this.pos, this.nextSpace())
     const t = this.tok(this.pos, this.pos + m.length)
     this.pos += m.length
@@ -448,21 +564,22 @@ class Cursor {
    * several words (`platinum mesh`). Without the keyword, the first word is taken and `kw` reports.
    */
   upTo(word: string, what: string): Tok {
-    const rest = this.s.slice(this.pos)
-    const m = new RegExp(`\\s+${word}(?=\\s|$)`).exec(rest)
-    if (!m || m.index === 0) {
+    const re = standaloneWord(word)
+    re.lastIndex = this.pos
+    const m = re.exec(this.s)
+    if (!m || m.index === this.pos) {
       const t = this.word(what)
       this.ws()
       return t
     }
-    const t = this.tok(this.pos, this.pos + m.index)
-    this.pos += m.index
+    const t = this.tok(this.pos, m.index)
+    this.pos = m.index
     this.ws()
     return t
   }
 
   kw(word: string): void {
-    const m = this.match(/^[A-Za-z-]+/)
+    const m = this.match(LETTERS_RE)
     if (m !== word) {
       // Offer the keyword only for a near miss (`betwen`), not for any word that happens to stand there.
       const near = m && closest(m, [word])
@@ -507,8 +624,9 @@ class Cursor {
   }
 
   nextSpace(): number {
-    const m = /[\s,:]/.exec(this.s.slice(this.pos))
-    return m ? this.pos + m.index : this.s.length
+    SPACE_OR_STOP_RE.lastIndex = this.pos
+    const m = SPACE_OR_STOP_RE.exec(this.s)
+    return m ? m.index : this.s.length
   }
 
   /** `, KEY EXPR` clauses at the end of a line, each key at most once, in any order. */

@@ -20,6 +20,8 @@ math.createUnit('ppmw', { definition: '0.0001 wtpct' }) // mass parts per millio
 
 const privateParse = math.parse.bind(math)
 const UnitClass = math.Unit
+// Simplification in a fixed unit system (SI), whatever units were parsed before: see formatValue.
+UnitClass.setUnitSystem('si')
 
 function disabled(name: string) {
   return function () {
@@ -557,7 +559,11 @@ export function inKindUnit(v: Value, kind: Kind): number {
 /** Human text of a value as written by the user's units, e.g. "1.44 A". */
 export function formatValue(v: Value): string {
   if (typeof v === 'number') return fmt(v)
-  const s = v.simplify()
+  // One unit (`440 g`, `2 A/dm^2` counts as two): shown in the unit it was written in. Several
+  // (`2 A/dm^2 * panel`): simplified in SI units. Not mathjs's default "auto" system, which follows
+  // the units it happened to parse last, so that the same value would read differently depending on
+  // what was analysed before it (found by the incremental-analysis property test).
+  const s = v.units.length <= 1 ? v : v.simplify()
   const units = s.formatUnits()
   return `${fmt(s.toNumber(units))} ${prettyUnit(units)}`
 }
