@@ -4,12 +4,12 @@ import { RULES } from '../rules'
 import { NOTED_ANY } from '../rules/noted'
 import { gatherIncludes } from './include'
 import type { Diagnostic } from './diagnostics'
-import { prettyFormula } from './formula'
-import { buildModel, type Computed, type Model, type ModelOptions } from './model'
+import { clearFormulaCache, prettyFormula } from './formula'
+import { buildModel, engineRuns, simulationRuns, type Computed, type Model, type ModelOptions } from './model'
 import { parse, reparse } from './parser'
 import { LineIndex, type Span } from './positions'
 import type { LineNode, SyntaxTree } from './syntax'
-import { fmt, withGasUnit, withSignificantFigures } from './units'
+import { clearExpressionCache, fmt, withGasUnit, withSignificantFigures } from './units'
 
 export interface Analysis {
   text: string
@@ -20,6 +20,17 @@ export interface Analysis {
   diagnostics: Diagnostic[]
   /** The definitions files the document includes (absolute paths), for re-analysis when they change. */
   includedFiles: string[]
+}
+
+/**
+ * Forget everything kept between analyses (compiled expressions, parsed formulas, engine and
+ * simulation results), so that the next analysis costs what a first one does. For benchmarks.
+ */
+export function clearAnalysisCaches(): void {
+  clearExpressionCache()
+  clearFormulaCache()
+  engineRuns.clear()
+  simulationRuns.clear()
 }
 
 /**

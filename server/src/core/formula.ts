@@ -643,6 +643,11 @@ function parseInternal(text: string, suggest: boolean): Internal {
 const parsedCache = new Map<string, Internal>()
 const PARSED_CACHE_LIMIT = 4096
 
+/** Forget parsed formulas (for benchmarks that measure a first analysis). */
+export function clearFormulaCache(): void {
+  parsedCache.clear()
+}
+
 function safeParse(text: string): Internal {
   const t = typeof text === 'string' ? text : ''
   let hit = parsedCache.get(t)

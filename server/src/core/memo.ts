@@ -14,6 +14,10 @@ export class ResultCache<I, R> {
     private readonly limit = 8,
   ) {}
 
+  clear(): void {
+    this.entries.clear()
+  }
+
   get(input: I): R {
     const key = JSON.stringify(input, (_k, v) => (typeof v === 'bigint' ? `${v}n` : v))
     const hit = this.entries.get(key)

@@ -20,6 +20,7 @@ import { parseFormula, prettyFormula, type Formula } from './formula'
 import type { Span } from './positions'
 import type { ChargeItem, LineNode, SyntaxTree, Tok } from './syntax'
 import {
+  deferred,
   evaluateExpression,
   fmt,
   formatValue,
@@ -426,9 +427,26 @@ const WATER_NAMES = new Set(['water', 'H2O'])
 class Evaluator {
   constructor(private readonly m: Model) {}
 
-  /** A computed value shown at the end of a statement (its hint) and explained over it (its hover). */
-  private hintAt(at: { line: number; span: Span }, c: Omit<Computed, 'line' | 'span' | 'anchor'>): void {
-    this.m.computed.push({ line: at.line, span: at.span, anchor: at.span.end, ...c })
+  /**
+   * A computed value shown at the end of a statement (its hint) and explained over it (its hover).
+   * The working may be given as a function: it is then written only when it is first read (a hover,
+   * a report), not on every keystroke for every step of a long protocol.
+   */
+  private hintAt(at: { line: number; span: Span }, c: Omit<Computed, 'line' | 'span' | 'anchor' | 'working'> & { working: string[] | (() => string[]) }): void {
+    const out = { line: at.line, span: at.span, anchor: at.span.end, ...c }
+    const working = c.working
+    if (typeof working === 'function') {
+      // Redefined in place: the property keeps its position among the keys (reports list them in order).
+      const make = deferred(working)
+      let value: string[] | undefined
+      Object.defineProperty(out, 'working', {
+        enumerable: true,
+        configurable: true,
+        get: () => (value ??= make()),
+        set: (v: string[]) => (value = v),
+      })
+    }
+    this.m.computed.push(out as Computed)
   }
 
   quantity(
@@ -852,38 +870,39 @@ class Evaluator {
       t.electronMol += ne
       t.effectiveElectronMol += ne * eff
       const Ah = Q / 3600
-      const working = [
-        s.densityAm2 !== undefined && s.usedArea
-          ? `I = j·A = ${fmt(s.densityAm2 / 10, 4)} mA/cm² × ${fmt(s.usedArea.cm2, 4)} cm² (${s.usedArea.from}) = ${fmt(s.currentA!, 4)} A`
-          : s.currentText && !/^\s*[\d.]+\s*A\s*$/.test(s.currentText)
-            ? `I = ${s.currentText} = ${fmt(s.currentA!, 4)} A`
-            : `I = ${fmt(s.currentA!, 4)} A`,
-        `Q = I·t = ${fmt(s.currentA!, 4)} A × ${formatDuration(s.seconds!)} = ${fmt(Ah, 4)} A·h = ${fmt(Q, 4)} C`,
-        `n(e⁻) = Q/F = ${fmt(Q, 4)} C ÷ ${fmt(FARADAY, 9)} C/mol = ${fmt(ne, 4)} mol`,
-      ]
       const parts = [`${fmt(Ah)} A·h`, `${fmt(ne)} mol e⁻`]
-      if (eff < 1) {
-        working.push(`at ${fmt(eff * 100)} % current efficiency: ${fmt(ne * eff, 4)} mol e⁻ go to the product`)
-      }
       if (s.usedArea) parts.unshift(`${fmt(s.currentA!)} A`)
       // Current density over each part with an area; the hint shows the reference one (cathode).
       const ref = s.usedArea ?? this.referenceArea()
       if (ref && s.densityAm2 === undefined) parts.push(`${fmt((s.currentA! / ref.cm2) * 1000)} mA/cm²`)
-      for (const on of ['cathode', 'anode', 'separator'] as const) {
-        const a = this.referenceArea(on)
-        if (!a) continue
-        const j = (s.currentA! / a.cm2) * 1000
-        working.push(`j = I/A = ${fmt(s.currentA!, 4)} A ÷ ${fmt(a.cm2, 4)} cm² (${a.from}) = ${fmt(j, 4)} mA/cm²`)
-      }
-      if (s.voltageV !== undefined) {
-        const E = s.voltageV * Q
+      const E = s.voltageV !== undefined ? s.voltageV * Q : undefined
+      if (E !== undefined) {
         energy += E
         parts.push(`${fmt(E / 3600)} W·h`)
-        working.push(`E = U·Q = ${fmt(s.voltageV, 4)} V × ${fmt(Ah, 4)} A·h = ${fmt(E / 3600, 4)} W·h`)
       } else energyKnown = false
-      if (s === lastCharged && charged.length > 1) {
-        parts.push(`Σ ${fmt(t.chargeC / 3600)} A·h`)
-        working.push(`all steps: Q = ${fmt(t.chargeC / 3600, 4)} A·h = ${fmt(t.chargeC, 4)} C, n(e⁻) = ${fmt(t.electronMol, 4)} mol`)
+      const sum = s === lastCharged && charged.length > 1 ? { chargeC: t.chargeC, electronMol: t.electronMol } : undefined
+      if (sum) parts.push(`Σ ${fmt(sum.chargeC / 3600)} A·h`)
+      // The working is written when it is read (see hintAt); everything it uses is fixed by now.
+      const working = () => {
+        const w = [
+          s.densityAm2 !== undefined && s.usedArea
+            ? `I = j·A = ${fmt(s.densityAm2 / 10, 4)} mA/cm² × ${fmt(s.usedArea.cm2, 4)} cm² (${s.usedArea.from}) = ${fmt(s.currentA!, 4)} A`
+            : s.currentText && !/^\s*[\d.]+\s*A\s*$/.test(s.currentText)
+              ? `I = ${s.currentText} = ${fmt(s.currentA!, 4)} A`
+              : `I = ${fmt(s.currentA!, 4)} A`,
+          `Q = I·t = ${fmt(s.currentA!, 4)} A × ${formatDuration(s.seconds!)} = ${fmt(Ah, 4)} A·h = ${fmt(Q, 4)} C`,
+          `n(e⁻) = Q/F = ${fmt(Q, 4)} C ÷ ${fmt(FARADAY, 9)} C/mol = ${fmt(ne, 4)} mol`,
+        ]
+        if (eff < 1) w.push(`at ${fmt(eff * 100)} % current efficiency: ${fmt(ne * eff, 4)} mol e⁻ go to the product`)
+        for (const on of ['cathode', 'anode', 'separator'] as const) {
+          const a = this.referenceArea(on)
+          if (!a) continue
+          const j = (s.currentA! / a.cm2) * 1000
+          w.push(`j = I/A = ${fmt(s.currentA!, 4)} A ÷ ${fmt(a.cm2, 4)} cm² (${a.from}) = ${fmt(j, 4)} mA/cm²`)
+        }
+        if (E !== undefined) w.push(`E = U·Q = ${fmt(s.voltageV!, 4)} V × ${fmt(Ah, 4)} A·h = ${fmt(E / 3600, 4)} W·h`)
+        if (sum) w.push(`all steps: Q = ${fmt(sum.chargeC / 3600, 4)} A·h = ${fmt(sum.chargeC, 4)} C, n(e⁻) = ${fmt(sum.electronMol, 4)} mol`)
+        return w
       }
       this.hintAt(s, {
         key: 'step.charge',
@@ -999,7 +1018,7 @@ class Evaluator {
         key: 'step.sim',
         label: `sim: ${parts.join(' · ')}`,
         title: 'Simulated state at the end of this step',
-        working: [
+        working: () => [
           `after ${clock(st.endTime)} of the run${st.product ? `; ${prettyFormula(st.product.formula)} formed in the step: ${fmt(st.product.mol, 4)} mol, current efficiency ${fmt(st.product.efficiency * 100, 3)} %` : ''}`,
           ...st.compartments.map(
             (c) =>
@@ -1089,7 +1108,7 @@ class Evaluator {
         value: y.kind === 'expect' ? (formed + y.initialMol) * f.molarMass : electrons > 0 ? (formed * main.electrons) / electrons : 0,
         unit: y.kind === 'expect' ? 'g' : '1',
         title: `${prettyFormula(main.formula)} in the simulation`,
-        working: [
+        working: () => [
           `simulated ${prettyFormula(main.formula)} formed: ${fmt(formed, 4)} mol = ${fmt(formed * f.molarMass, 4)} g` + (y.initialMol > 0 ? `, plus ${fmt(y.initialMol * f.molarMass, 4)} g charged` : ''),
           `simulated current efficiency: ${fmt(formed, 4)} mol × ${main.electrons} ÷ ${fmt(electrons, 4)} mol e⁻ = ${fmt(electrons > 0 ? ((formed * main.electrons) / electrons) * 100 : 0, 3)} %`,
         ],
@@ -1202,7 +1221,7 @@ class Evaluator {
         key: 'step.products',
         label,
         title: 'Products of this step',
-        working: [
+        working: () => [
           ...sp.products.map((p) => `${prettyFormula(p.formula)} in ${p.compartment}: ${fmt(p.mol, 4)} mol = ${amountText(p, p.mol, Vm, 4)}  (${p.equation})`),
           ...energy,
           ...sp.notes.map((x) => `⚠ ${x}`),
@@ -1299,17 +1318,28 @@ class Evaluator {
     if (y.mol !== undefined) y.formedMol = y.mol - y.initialMol
     if (y.maxMolEff === undefined || y.maxMol100 === undefined || this.m.totals.electronMol === 0) return
     const shown = (mol: number) => (q.kind === 'volume' ? gasVolumeText(mol * Vm) : q.kind === 'amount' ? `${fmt(mol)} mol` : `${fmt(mol * M)} g`)
-    const working = [
-      `${y.reaction.equation}  (${y.reaction.reason})`,
-      `n(e⁻) = ${fmt(this.m.totals.electronMol, 4)} mol over all steps`,
-      `${pf} formed: ${fmt(y.maxMolEff, 4)} mol = ${fmt(y.maxMolEff * M, 4)} g at the steps' efficiencies${y.feedLimited ? ' and with the feed running out' : ''}; Faraday's law for the whole charge: n(e⁻)/${fmt(y.reaction.electrons, 4)} = ${fmt(y.maxMol100, 4)} mol`,
-    ]
-    if (gas) {
-      working.push(`gas volume at ${fmt(this.m.temperatureK - ZERO_CELSIUS)} °C and ${fmt(this.m.pressurePa / 1000, 5)} kPa: V = nRT/p = ${fmt(y.maxMolEff * Vm, 4)} L (dry ideal gas; gas over the hot electrolyte also carries water vapour)`)
-    }
-    if (y.feedLimited) working.push(...engine!.steps.flatMap((s) => s.notes.map((x) => `⚠ step on line ${s.line + 1}: ${x}`)))
-    if (y.initialMol > 0) {
-      working.push(`charged before the run into ${where!.name}: ${fmt(y.initialMol, 4)} mol = ${fmt(y.initialMol * M, 4)} g; the stated amount includes it`)
+    // The working is written when it is read (see hintAt): the values it uses are fixed here.
+    const reaction = y.reaction
+    const maxMolEff = y.maxMolEff
+    const maxMol100 = y.maxMol100
+    const feedLimited = y.feedLimited
+    const initialMol = y.initialMol
+    const measuredMol = y.mol
+    const electronMol = this.m.totals.electronMol
+    const Tc = this.m.temperatureK - ZERO_CELSIUS
+    const kPa = this.m.pressurePa / 1000
+    const working = (): string[] => {
+      const w = [
+        `${reaction.equation}  (${reaction.reason})`,
+        `n(e⁻) = ${fmt(electronMol, 4)} mol over all steps`,
+        `${pf} formed: ${fmt(maxMolEff, 4)} mol = ${fmt(maxMolEff * M, 4)} g at the steps' efficiencies${feedLimited ? ' and with the feed running out' : ''}; Faraday's law for the whole charge: n(e⁻)/${fmt(reaction.electrons, 4)} = ${fmt(maxMol100, 4)} mol`,
+      ]
+      if (gas) {
+        w.push(`gas volume at ${fmt(Tc)} °C and ${fmt(kPa, 5)} kPa: V = nRT/p = ${fmt(maxMolEff * Vm, 4)} L (dry ideal gas; gas over the hot electrolyte also carries water vapour)`)
+      }
+      if (feedLimited) w.push(...engine!.steps.flatMap((s) => s.notes.map((x) => `⚠ step on line ${s.line + 1}: ${x}`)))
+      if (initialMol > 0) w.push(`charged before the run into ${where!.name}: ${fmt(initialMol, 4)} mol = ${fmt(initialMol * M, 4)} g; the stated amount includes it`)
+      return w
     }
     const formedMol = y.formedMol
     if (n.kind === 'expect') {
@@ -1328,18 +1358,18 @@ class Evaluator {
       })
     } else if (formedMol !== undefined && y.maxMol100 > 0) {
       const ce = formedMol / y.maxMol100
-      working.push(
-        `current efficiency = formed ÷ (n(e⁻)/${fmt(y.reaction.electrons, 4)}) = ` +
-          (y.initialMol > 0 ? `(${fmt(y.mol!, 4)} − ${fmt(y.initialMol, 4)}) mol` : `${fmt(formedMol, 4)} mol`) +
-          ` ÷ ${fmt(y.maxMol100, 4)} mol = ${fmt(ce * 100, 3)} %`,
-      )
       this.hintAt(n, {
         key: 'observe.efficiency',
         label: `current efficiency ${fmt(ce * 100)} %`,
         value: ce,
         unit: '1',
         title: `Current efficiency for ${pf}`,
-        working,
+        working: () => [
+          ...working(),
+          `current efficiency = formed ÷ (n(e⁻)/${fmt(reaction.electrons, 4)}) = ` +
+            (initialMol > 0 ? `(${fmt(measuredMol!, 4)} − ${fmt(initialMol, 4)}) mol` : `${fmt(formedMol, 4)} mol`) +
+            ` ÷ ${fmt(maxMol100, 4)} mol = ${fmt(ce * 100, 3)} %`,
+        ],
       })
     }
   }

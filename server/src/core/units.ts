@@ -358,6 +358,12 @@ function describeNode(type: string): string {
   }
 }
 
+/** Forget compiled expressions and their last results (for benchmarks that measure a first analysis). */
+export function clearExpressionCache(): void {
+  cache.clear()
+  unitNames.clear()
+}
+
 function compiled(text: string): CompileResult {
   let c = cache.get(text)
   if (!c) {
@@ -629,6 +635,16 @@ export function gasVolumeText(litres: number, sig = labelFigures): string {
 }
 
 /** Run `f` with another number of significant figures for labels (fmt's default); restores it after. */
+/**
+ * `f` to be run later (text that is only read when someone looks: a hover's working), in the
+ * formatting settings in force now (significant figures, gas unit).
+ */
+export function deferred<T>(f: () => T): () => T {
+  const sig = labelFigures
+  const unit = gasUnit
+  return () => withSignificantFigures(sig, () => withGasUnit(unit, f))
+}
+
 export function withSignificantFigures<T>(sig: number, f: () => T): T {
   const before = labelFigures
   labelFigures = Math.max(2, Math.min(8, Math.round(sig)))
