@@ -2,11 +2,31 @@
 // the browser (browser.ts, a web-worker language server): commands, the run preview, the status item.
 // The `cellrun.trace.server` setting is read by vscode-languageclient from the client id 'cellrun'.
 import * as vscode from 'vscode'
-import { State, type BaseLanguageClient, type LanguageClientOptions } from 'vscode-languageclient'
+import { CloseAction, ErrorAction, State, type BaseLanguageClient, type LanguageClientOptions } from 'vscode-languageclient'
+import { RestartPolicy, restartingErrorHandler } from './restart'
 
 let client: BaseLanguageClient | undefined
 
-export const CLIENT_OPTIONS = (selector: LanguageClientOptions['documentSelector']): LanguageClientOptions => ({ documentSelector: selector })
+/** Unexpected stops of the server (restart.ts decides); a restart notice waits for the server to run again. */
+const restarts = new RestartPolicy()
+let restartNotice: string | undefined
+
+export const CLIENT_OPTIONS = (selector: LanguageClientOptions['documentSelector']): LanguageClientOptions => ({
+  documentSelector: selector,
+  errorHandler: restartingErrorHandler(
+    restarts,
+    { Restart: CloseAction.Restart, DoNotRestart: CloseAction.DoNotRestart, Continue: ErrorAction.Continue, Shutdown: ErrorAction.Shutdown },
+    {
+      restarting: (message) => (restartNotice = message),
+      gaveUp: (message) => {
+        restartNotice = undefined
+        void vscode.window.showErrorMessage(message, 'Restart Server').then((pick) => {
+          if (pick) void vscode.commands.executeCommand('cellrun.restartServer')
+        })
+      },
+    },
+  ),
+})
 
 /** Start the client made by `make`, and register what the extension offers around it. */
 export async function activateWith(context: vscode.ExtensionContext, make: () => BaseLanguageClient): Promise<void> {
@@ -22,13 +42,18 @@ export async function activateWith(context: vscode.ExtensionContext, make: () =>
   context.subscriptions.push(
     status,
     client.onDidChangeState((e) => {
-      if (e.newState === State.Running) show('$(beaker) Cellrun', 'Cellrun language server: running (click to restart)')
-      else if (e.newState === State.Starting) show('$(sync~spin) Cellrun', 'Cellrun language server: starting')
+      if (e.newState === State.Running) {
+        show('$(beaker) Cellrun', 'Cellrun language server: running (click to restart)')
+        if (restartNotice) void vscode.window.showWarningMessage(restartNotice)
+        restartNotice = undefined
+      } else if (e.newState === State.Starting) show('$(sync~spin) Cellrun', 'Cellrun language server: starting')
       else show('$(error) Cellrun', 'Cellrun language server: stopped (click to restart)')
     }),
     vscode.window.onDidChangeActiveTextEditor((e) => (e?.document.languageId === 'cellrun' ? status.show() : status.hide())),
     vscode.commands.registerCommand('cellrun.restartServer', async () => {
       if (!client) return
+      restarts.reset()
+      restartNotice = undefined
       await client.stop()
       await client.start()
       void vscode.window.showInformationMessage('Cellrun: language server restarted.')

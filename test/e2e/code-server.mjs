@@ -17,7 +17,11 @@
 //      examples/koh-from-carbonate.cellrun with one error line appended;
 //   4. opens it in headless Chromium and checks inlay hints, the wrong-unit diagnostic, a hover and
 //      the run preview, with screenshots in /tmp/cellrun-e2e-*.png;
-//   5. always stops code-server and Chromium.
+//   5. kills the Cellrun language server (SIGKILL, the one process under this run's extensions dir)
+//      and checks that the client restarts it and says so, that hover and diagnostics work again,
+//      that after the 5th kill in 3 minutes an error message says it will not restart, and that the
+//      message's "Restart Server" button starts it again;
+//   6. always stops code-server and Chromium.
 // Exit code 0 when every check passed, 1 otherwise; prints `N passed, N failed` last.
 
 import { execFileSync, spawn } from "node:child_process";
@@ -168,6 +172,87 @@ async function waitForHttp(url, ms, proc) {
   throw new Error(`${url} did not answer within ${ms} ms`);
 }
 
+// Hovers over `step 1:` until the working (Q = I·t) shows; returns the hover's text ("" if none).
+async function hoverStep(page, editor, shot) {
+  let hoverText = "";
+  try {
+    const word = editor.locator(".view-line").filter({ hasText: "step 1:" }).first().locator("span span").filter({ hasText: /^step$|current/ }).first();
+    await word.waitFor();
+    for (let attempt = 0; attempt < 3 && !/Q = I·t/.test(hoverText); attempt++) {
+      const box = await word.boundingBox();
+      await page.mouse.move(box.x + 2, box.y + box.height / 2);
+      await page.mouse.move(box.x + box.width / 2, box.y + box.height / 2, { steps: 4 });
+      try {
+        const hover = page.locator(".monaco-hover").filter({ hasText: "Q = I·t" }).first();
+        await hover.waitFor({ state: "visible", timeout: 10_000 });
+        hoverText = (await hover.textContent()) || "";
+        await page.waitForTimeout(600); // let the fade-in finish before the screenshot
+      } catch {
+        await page.mouse.move(10, 10);
+      }
+    }
+  } catch (e) {
+    hoverText = "";
+    log(`hover: ${String(e.message || e).split("\n")[0]}`);
+  }
+  await page.screenshot({ path: `${shotPrefix}${shot}.png` });
+  await page.mouse.move(10, 10);
+  await page.keyboard.press("Escape");
+  return hoverText;
+}
+
+// ---- the Cellrun language server process (Node, forked by the extension host) ----------------
+
+// Pids of the Cellrun servers started from the extension installed in `extDir` (this run's own
+// temporary directory, so no other process can match): /proc/<pid>/cmdline names dist/server.js.
+function cellrunServerPids(extDir) {
+  const roots = [extDir, fs.realpathSync(extDir)];
+  const pids = [];
+  for (const entry of fs.readdirSync("/proc")) {
+    if (!/^\d+$/.test(entry)) continue;
+    let args;
+    try {
+      args = fs.readFileSync(`/proc/${entry}/cmdline`, "utf8").split("\0");
+    } catch {
+      continue; // gone meanwhile, or not ours to read
+    }
+    if (args.some((a) => roots.some((r) => a.startsWith(r + path.sep)) && a.endsWith(path.join("dist", "server.js")))) pids.push(Number(entry));
+  }
+  return pids;
+}
+
+// Waits for a Cellrun server whose pid is not in `old`; returns it, or undefined after `ms`.
+async function newServerPid(extDir, old, ms = 60_000) {
+  const end = Date.now() + ms;
+  while (Date.now() < end) {
+    const fresh = cellrunServerPids(extDir).filter((p) => !old.includes(p));
+    if (fresh.length) return fresh[0];
+    await new Promise((r) => setTimeout(r, 200));
+  }
+  return undefined;
+}
+
+// Kills one server by its pid, as a crash would (SIGKILL: no shutdown, no goodbye).
+function killServer(pid) {
+  log(`kill -KILL ${pid} (the Cellrun language server)`);
+  process.kill(pid, "SIGKILL");
+}
+
+// Closes the toasts `toasts` matches (their close button), and waits until they are gone.
+async function dismissToasts(page, toasts) {
+  for (let n = await toasts.count(); n > 0; n = await toasts.count()) {
+    const toast = toasts.first();
+    await toast.hover();
+    await toast.locator(".codicon-notifications-clear").first().click();
+    await toast.waitFor({ state: "detached", timeout: 5000 }).catch(() => {});
+  }
+}
+
+// The text of the notification toasts on screen.
+async function toastsText(page) {
+  return ((await page.locator(".notifications-toasts").innerText().catch(() => "")) || "").replace(/\s+/g, " ");
+}
+
 // ---- main ----------------------------------------------------------------------------------
 
 let server;
@@ -312,31 +397,8 @@ async function main() {
   await page.keyboard.press("Escape");
 
   // Hover over the text of step 1.
-  let hoverText = "";
-  try {
-    const word = editor.locator(".view-line").filter({ hasText: "step 1:" }).first().locator("span span").filter({ hasText: /^step$|current/ }).first();
-    await word.waitFor();
-    for (let attempt = 0; attempt < 3 && !/Q = I·t/.test(hoverText); attempt++) {
-      const box = await word.boundingBox();
-      await page.mouse.move(box.x + 2, box.y + box.height / 2);
-      await page.mouse.move(box.x + box.width / 2, box.y + box.height / 2, { steps: 4 });
-      try {
-        const hover = page.locator(".monaco-hover").filter({ hasText: "Q = I·t" }).first();
-        await hover.waitFor({ state: "visible", timeout: 10_000 });
-        hoverText = (await hover.textContent()) || "";
-        await page.waitForTimeout(600); // let the fade-in finish before the screenshot
-      } catch {
-        await page.mouse.move(10, 10);
-      }
-    }
-  } catch (e) {
-    hoverText = "";
-    log(`hover: ${String(e.message || e).split("\n")[0]}`);
-  }
-  await page.screenshot({ path: `${shotPrefix}hover.png` });
+  const hoverText = await hoverStep(page, editor, "hover");
   result("hover shows the working (Q = I·t)", /Q = I·t/.test(hoverText), hoverText.replace(/\s+/g, " ").trim().slice(0, 160));
-  await page.mouse.move(10, 10);
-  await page.keyboard.press("Escape");
 
   // Run preview through the command palette.
   let previewOk = false;
@@ -364,7 +426,122 @@ async function main() {
   await page.screenshot({ path: `${shotPrefix}preview.png` });
   result("run preview webview opens", previewOk, previewDetail);
 
+  // ---- the server crashes: the client restarts it and says so --------------------------------
+  await crashAndRestart(page, editor, extDir);
+
   if (pageErrors.length) log(`page errors (${pageErrors.length}): ${pageErrors.slice(0, 3).join(" | ").slice(0, 400)}`);
+}
+
+// Kills the Cellrun language server while the protocol is open, and checks what the user sees:
+// the warning that it was restarted, then hover and fresh diagnostics from the new server. Then
+// kills it until the client gives up (5 stops within 3 minutes), checks the error message, and
+// starts the server again with the message's "Restart Server" button.
+async function crashAndRestart(page, editor, extDir) {
+  const RESTARTED = "the language server stopped unexpectedly and was restarted";
+  const GAVE_UP = "will not be restarted again";
+  const first = cellrunServerPids(extDir);
+  result("one Cellrun server process runs", first.length === 1, `pids ${first.join(", ") || "none"}`);
+  if (first.length !== 1) return;
+  const seen = [...first];
+
+  killServer(first[0]);
+  const second = await newServerPid(extDir, seen);
+  result("the client starts a new server after the kill", second !== undefined, `pid ${first[0]} -> ${second}`);
+  if (second === undefined) return;
+  seen.push(second);
+  let notice = "";
+  try {
+    await page.locator(".notifications-toasts").getByText(RESTARTED).first().waitFor({ timeout: 30_000 });
+    notice = await toastsText(page);
+    await page.waitForTimeout(600); // let the toast's fade-in finish before the screenshot
+  } catch {}
+  await page.screenshot({ path: `${shotPrefix}restarted.png` });
+  result("a notification says the server stopped and was restarted", notice.includes(RESTARTED), notice.trim().slice(0, 200));
+
+  // The new server answers: hover over step 1 shows the working again.
+  const hoverText = await hoverStep(page, editor, "hover-after-restart");
+  result("hover works after the restart (Q = I·t)", /Q = I·t/.test(hoverText), hoverText.replace(/\s+/g, " ").trim().slice(0, 120));
+
+  // ... and analyses a new version: the new wrong-unit line gets its own problem, next to step 9's.
+  let problemRows = [];
+  try {
+    await editor.locator(".view-lines").click({ position: { x: 200, y: 10 } });
+    await page.keyboard.press("Control+End");
+    await page.keyboard.type("step 10: current 7 V for 1 h", { delay: 5 });
+    await page.keyboard.press("Escape");
+    await page.keyboard.press("Control+Shift+M");
+    // Diagnostics of the half-typed line may show first: wait for those of the finished line.
+    await page.waitForFunction(
+      () => {
+        const rows = [...document.querySelectorAll(".markers-panel .monaco-list-row")].map((r) => r.textContent || "").filter((t) => /\[Ln \d+/.test(t)); // marker rows, not the file's row
+        return rows.length === 2 && rows.some((t) => t.includes("step 9") && t.includes("`5 V`")) && rows.some((t) => t.includes("step 10") && t.includes("`7 V`"));
+      },
+      null,
+      { timeout: 30_000 },
+    );
+    problemRows = await page.locator(".markers-panel .monaco-list-row").filter({ hasText: /\[Ln \d+/ }).allInnerTexts();
+  } catch (e) {
+    problemRows = await page.locator(".markers-panel .monaco-list-row").filter({ hasText: /\[Ln \d+/ }).allInnerTexts().catch(() => []);
+    log(`diagnostics after restart: ${String(e.message || e).split("\n")[0]}`);
+  }
+  await page.screenshot({ path: `${shotPrefix}diagnostics-after-restart.png` });
+  result(
+    "diagnostics of a new edit after the restart (wrong-unit on step 9 and on the new step 10)",
+    problemRows.length === 2 && problemRows.some((t) => t.includes("step 10") && t.includes("`7 V`")) && problemRows.every((t) => t.includes("wrong-unit")),
+    problemRows.map((t) => t.replace(/\s+/g, " ").trim()).join(" | ").slice(0, 300),
+  );
+  await page.keyboard.press("Control+Shift+M");
+
+  // Three more stops are restarted (4 in all); the 5th within 3 minutes is not. Each kill waits
+  // until the previous restart has finished (its notice is shown once the server runs again), as
+  // separate crashes would; the notice is dismissed first so that its return can be seen.
+  const restartToast = page.locator(".notifications-toasts .notification-toast").filter({ hasText: RESTARTED });
+  let current = second;
+  for (let i = 2; i <= 4; i++) {
+    await dismissToasts(page, restartToast);
+    killServer(current);
+    const next = await newServerPid(extDir, seen);
+    let noticed = false;
+    try {
+      await restartToast.first().waitFor({ timeout: 30_000 });
+      noticed = true;
+    } catch {}
+    if (next === undefined || !noticed) {
+      result(`restart ${i} after a kill, with its notice`, false, `new pid ${next}, notice ${noticed}`);
+      return;
+    }
+    seen.push(next);
+    current = next;
+  }
+  result("the 2nd to 4th kills are restarted too, each with its notice", true, `pids ${seen.join(" -> ")}`);
+  await dismissToasts(page, restartToast);
+  killServer(current);
+  let gaveUp = "";
+  try {
+    await page.locator(".notifications-toasts").getByText(GAVE_UP).first().waitFor({ timeout: 30_000 });
+    gaveUp = await toastsText(page);
+    await page.waitForTimeout(600);
+  } catch {}
+  await page.screenshot({ path: `${shotPrefix}gave-up.png` });
+  // No fifth restart: the client keeps the server stopped.
+  const none = await newServerPid(extDir, seen, 5000);
+  result(
+    "after the 5th kill: an error says it will not restart, and how to restart",
+    gaveUp.includes(GAVE_UP) && gaveUp.includes("Cellrun: Restart Server") && none === undefined,
+    `${gaveUp.trim().slice(0, 240)}${none === undefined ? "" : ` (but a server started: ${none})`}`,
+  );
+
+  // The message's button runs Cellrun: Restart Server: a server runs and answers again.
+  let restartedByHand;
+  try {
+    const toast = page.locator(".notifications-toasts .notification-toast").filter({ hasText: GAVE_UP }).first();
+    await toast.getByRole("button", { name: "Restart Server" }).click();
+    restartedByHand = await newServerPid(extDir, seen);
+  } catch (e) {
+    log(`restart button: ${String(e.message || e).split("\n")[0]}`);
+  }
+  const hoverAgain = restartedByHand === undefined ? "" : await hoverStep(page, editor, "hover-after-manual-restart");
+  result("the message's Restart Server button starts it again (hover works)", restartedByHand !== undefined && /Q = I·t/.test(hoverAgain), `pid ${restartedByHand}`);
 }
 
 async function cleanup() {

@@ -45,7 +45,16 @@ function pathOf(uri: string): string | undefined {
 }
 
 export function startServer(connection: Connection, host: ServerHost = {}): void {
-  const documents = new TextDocuments(TextDocument)
+  const documents = new TextDocuments({
+    // A didOpen without a string uri or text, or a numeric version (a broken client), is refused: the
+    // throw keeps it out of `documents` (the library logs it), where it would break every later pass
+    // over the open documents (settings changes, include lookups).
+    create: (uri, languageId, version, text) => {
+      if (typeof uri !== 'string' || typeof text !== 'string' || typeof version !== 'number') throw new Error('textDocument/didOpen needs a uri, a version and the text')
+      return TextDocument.create(uri, languageId, version, text)
+    },
+    update: TextDocument.update,
+  })
   const cache = new Map<string, { version: number; analysis: Analysis }>()
   /** Analysis options from the `cellrun.*` settings (percent in the settings, fraction in the core). */
   let options: ModelOptions = {}
