@@ -393,9 +393,13 @@ function unitSymbolValue(name: string): Unit {
 export function evaluateExpression(text: string, scope: ReadonlyMap<string, Value>): EvalResult {
   const c = compiled(text)
   if (!c.ok) return c
-  const inputs = c.names.map((n) => scope.get(n.name))
   const last = c.last
-  if (last && last.inputs.length === inputs.length && last.inputs.every((v, i) => v === inputs[i])) return last.result
+  if (last) {
+    let same = true
+    for (let i = 0; i < c.names.length && same; i++) same = scope.get(c.names[i].name) === last.inputs[i]
+    if (same) return last.result
+  }
+  const inputs = c.names.map((n) => scope.get(n.name))
   const result = evaluateCompiled(text, c, scope)
   c.last = { inputs, result }
   return result

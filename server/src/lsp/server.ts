@@ -80,7 +80,8 @@ export function startServer(connection: Connection, host: ServerHost = {}): void
     const hit = cache.get(doc.uri)
     if (hit && hit.version === doc.version) return hit.analysis
     const includes = includesFor(doc)
-    const analysis = analyze(doc.getText(), includes ? { ...options, includes } : options)
+    // The last analysis of this document lets the parser reuse the lines the edit did not touch.
+    const analysis = analyze(doc.getText(), includes ? { ...options, includes } : options, hit?.analysis)
     cache.set(doc.uri, { version: doc.version, analysis })
     return analysis
   }
