@@ -1,286 +1,26 @@
 // Property tests of the analysis core with fast-check: whatever text comes in, `analyze` must not
 // throw, must give exactly one syntax node per line, and every position it reports must lie inside
 // the document (and inside the node's own line for syntax-tree spans). Also: mutation fuzzing of
-// the example protocols, determinism, and hostile expressions against the mathjs sandbox.
+// the example protocols, determinism, and hostile input against the mathjs sandbox.
 //
-// Note on fast-check 4: `fc.fullUnicodeString()` was removed in v4; its replacement is
-// `fc.string({ unit: 'binary' })` (any code point). Lone surrogates come from a 16-bit unit.
-import { readdirSync, readFileSync } from 'node:fs'
-import { join } from 'node:path'
+// The generators and the invariant checker live in test/fuzz/ and are shared with the standalone
+// runner `npm run fuzz` (100,000 documents); this file runs a CI-sized subset.
 import { fileURLToPath } from 'node:url'
+import { join } from 'node:path'
 import * as fc from 'fast-check'
-import { describe, expect, it } from 'vitest'
-import { analyze, hoverAt, outline, type Analysis, type OutlineItem } from '../server/src/core/analyze'
+import { afterAll, describe, expect, it } from 'vitest'
+import { analyze, type Analysis } from '../server/src/core/analyze'
+import { MAX_UNIT_POWER, toNumber } from '../server/src/core/units'
+import { CELL, fuzzDocument, lone16, loadExamples, mutate, mutatedExample, mutations, protocolText } from './fuzz/generators'
+import { checkAll } from './fuzz/invariants'
 
 /** Multiply the run counts for a deeper local session: CELLRUN_FUZZ_SCALE=20 npx vitest run test/fuzz.test.ts */
 const SCALE = Math.max(1, Number(process.env.CELLRUN_FUZZ_SCALE) || 1)
 const runs = (n: number) => ({ numRuns: n * SCALE })
 
 const ROOT = fileURLToPath(new URL('..', import.meta.url))
-const EXAMPLES = readdirSync(join(ROOT, 'examples'))
-  .filter((f) => f.endsWith('.cellrun'))
-  .sort()
-  .map((f) => ({ name: f, text: readFileSync(join(ROOT, 'examples', f), 'utf8') }))
-
-// ------------------------------------------------------------------------------------------------
-// Invariants
-
-interface SpanLike {
-  start: number
-  end: number
-}
-
-function isSpan(v: unknown): v is SpanLike {
-  return typeof v === 'object' && v !== null && typeof (v as SpanLike).start === 'number' && typeof (v as SpanLike).end === 'number'
-}
-
-/** Every span-shaped object reachable in plain data (syntax nodes are plain objects and arrays). */
-function spansIn(v: unknown, path: string, out: { path: string; span: SpanLike }[] = []): { path: string; span: SpanLike }[] {
-  if (Array.isArray(v)) v.forEach((x, i) => spansIn(x, `${path}[${i}]`, out))
-  else if (typeof v === 'object' && v !== null) {
-    if (isSpan(v)) out.push({ path, span: v })
-    for (const [k, x] of Object.entries(v)) if (typeof x === 'object') spansIn(x, `${path}.${k}`, out)
-  }
-  return out
-}
-
-/** Line bounds computed here, independently of the core's LineIndex: [start, end) without the break. */
-function lineBounds(text: string): { start: number; end: number }[] {
-  const out: { start: number; end: number }[] = []
-  const re = /\r\n|\r|\n/g
-  let from = 0
-  for (let m = re.exec(text); m; m = re.exec(text)) {
-    out.push({ start: from, end: m.index })
-    from = m.index + m[0].length
-  }
-  out.push({ start: from, end: text.length })
-  return out
-}
-
-function expectSpan(span: SpanLike, lo: number, hi: number, what: string): void {
-  const ok = Number.isInteger(span.start) && Number.isInteger(span.end) && lo <= span.start && span.start <= span.end && span.end <= hi
-  if (!ok) throw new Error(`${what}: span ${JSON.stringify(span)} is not within [${lo}, ${hi}] with start <= end`)
-}
-
-function expectOffset(offset: number, hi: number, what: string): void {
-  if (!Number.isInteger(offset) || offset < 0 || offset > hi) throw new Error(`${what}: offset ${offset} is outside [0, ${hi}]`)
-}
-
-/** Analyse `text` and check every structural invariant; returns the analysis for further checks. */
-function checkAll(text: string): Analysis {
-  const a = analyze(text)
-  const n = text.length
-  const lines = lineBounds(text)
-
-  // One node per line, in order, with its own line number.
-  expect(text.split(/\r\n|\r|\n/).length).toBe(lines.length)
-  if (a.tree.lines.length !== lines.length) throw new Error(`${a.tree.lines.length} syntax nodes for ${lines.length} lines`)
-  a.tree.lines.forEach((node, i) => {
-    if (node.line !== i) throw new Error(`node ${i} says it is on line ${node.line}`)
-    // Every span in a node (statement, keyword, tokens, comment, error, fix) stays on its own line.
-    for (const { path, span } of spansIn(node, `line ${i} (${node.kind})`)) expectSpan(span, lines[i].start, lines[i].end, path)
-  })
-
-  for (const d of a.diagnostics) {
-    expectSpan(d.span, 0, n, `diagnostic ${d.code}`)
-    for (const f of d.fixes) for (const e of f.edits) expectSpan(e.span, 0, n, `fix "${f.title}" of ${d.code}`)
-    // The core's defensive catch-alls turn a crash into a diagnostic; none should ever fire.
-    if (/internal (parser )?error/.test(d.message)) throw new Error(`a rule or the parser crashed: ${d.message}`)
-  }
-  for (const c of a.computed) {
-    expectSpan(c.span, 0, n, `computed ${c.key} span`)
-    expectOffset(c.anchor, n, `computed ${c.key} anchor`)
-  }
-  for (const q of a.model.quantities) expectSpan(q.expr.span, 0, n, `quantity ${q.role}`)
-  for (const f of a.model.formulas) expectSpan(f.tok.span, 0, n, `formula ${f.tok.text}`)
-  for (const r of a.model.refs) expectSpan(r.tok.span, 0, n, `reference ${r.tok.text}`)
-  for (const d of a.model.declarations) expectSpan(d.tok.span, 0, n, `declaration ${d.tok.text}`)
-
-  // The editor-facing views must hold up too.
-  const walk = (items: OutlineItem[]): void => {
-    for (const it of items) {
-      expectSpan(it.span, 0, n, `outline ${it.name} span`)
-      expectSpan(it.selection, 0, n, `outline ${it.name} selection`)
-      walk(it.children)
-    }
-  }
-  walk(outline(a))
-  const probes = new Set([0, n, n >> 1, ...a.diagnostics.map((d) => d.span.start), ...a.computed.map((c) => c.anchor)])
-  for (const o of probes) {
-    const h = hoverAt(a, o)
-    if (h) expectSpan(h.span, 0, n, `hover at ${o}`)
-  }
-  return a
-}
-
-// ------------------------------------------------------------------------------------------------
-// Generators
-
-const NEWLINE = fc.constantFrom('\n', '\r\n', '\r')
-const KEYWORDS = [
-  'run', 'note', 'conditions', 'let', 'cell', 'vessel', 'compartment', 'separator', 'anode', 'cathode', 'charge', 'step',
-  'expect', 'observe', 'handling', 'current', 'voltage', 'for', 'efficiency', 'between', 'and', 'in', 'area', 'solution', 'at',
-  'stepp', 'Step', 'cel', 'water', 'H2O',
-]
-const UNITS = [
-  'g', 'kg', 'mg', 'mol', 'mmol', 'L', 'mL', 'cm^2', 'm^2', 'dm^2', 'A', 'mA', 'kA', 'V', 's', 'min', 'h', 'C', 'Ah', 'mAh', 'Wh',
-  'degC', '°C', 'K', 'kPa', 'bar', 'atm', 'mol/L', 'M', 'mM', 'g/L', 'wt%', '%', 'mA/cm^2', 'A/m^2', 'kA/m^2', 'ppmw', 'cm²', 'µA',
-]
-const FORMULAS = ['K2CO3', 'KOH', 'NaCl', 'NaOH', 'Cl2', 'H2', 'O2', 'Cu', 'CuSO4·5H2O', 'CuSO4*5H2O', 'CuSO4.5H2O', 'H2SO4', 'SO4^2-', 'OH-', 'Cu^2+', '(NH4)2SO4', 'Xx9', 'C0', 'K2C03', 'H', '[Fe(CN)6]3-']
-const NAMES = ['feed', 'product', 'anolyte', 'catholyte', 'bath', 'area', 'j', 'panel', 'x', '_', 'a-b']
-const KINDS = ['cation-exchange', 'anion-exchange', 'diaphragm', 'none', 'vent', 'scrubber', 'hood', 'ppe', 'bogus']
-const PUNCT = [':', ',', '=', '(', ')', '[', ']', '{', '}', '"', '#', '*', '/', '^', '+', '-', '·', '×', '−', '²', '.', ';', '?', '!', '\t', ' ', '  ']
-const ODD = ['🧪', '𝛼', '\u00a0', '\u200b', '\ud800', '\udfff', 'é', 'µ', '\u0000', '\\', '`']
-
-const number = fc.oneof(
-  fc.integer({ min: -1000, max: 100000 }).map(String),
-  fc.double({ noNaN: true, min: -1e6, max: 1e6 }).map((d) => String(d)),
-  fc.constantFrom('0', '-0', '.5', '5.', '1e308', '1e400', '1e-400', '1.2.3', '0x1F', '1_000', '90', '100', '3.6', 'NaN', 'Infinity'),
-)
-const quantity = fc.oneof(
-  fc.tuple(number, fc.constantFrom(...UNITS)).map(([a, u]) => `${a} ${u}`),
-  fc.tuple(number, fc.constantFrom(...UNITS), fc.constantFrom('*', '/', '+', '-'), fc.constantFrom(...NAMES, ...UNITS), number).map(
-    ([a, u, op, b, c]) => `${a} ${u} ${op} ${b}${op === '+' || op === '-' ? ' ' + c : ''}`,
-  ),
-  fc.tuple(number, fc.constantFrom(...NAMES)).map(([a, nm]) => `${a} * ${nm}`),
-  number,
-  fc.constantFrom(...NAMES),
-)
-const token = fc.oneof(
-  { arbitrary: fc.constantFrom(...KEYWORDS), weight: 4 },
-  { arbitrary: fc.constantFrom(...UNITS), weight: 3 },
-  { arbitrary: number, weight: 3 },
-  { arbitrary: fc.constantFrom(...FORMULAS), weight: 2 },
-  { arbitrary: fc.constantFrom(...NAMES), weight: 2 },
-  { arbitrary: fc.constantFrom(...KINDS), weight: 1 },
-  { arbitrary: fc.constantFrom(...PUNCT), weight: 4 },
-  { arbitrary: fc.constantFrom(...ODD), weight: 1 },
-)
-const indent = fc.constantFrom('', '', '', '  ', '    ', '\t', ' ')
-
-/** Lines that follow the grammar's shapes with plausible, often wrong, pieces. */
-const templateLine = fc.oneof(
-  fc.string({ maxLength: 20 }).map((s) => `run "${s}"`),
-  fc.string({ maxLength: 30 }).map((s) => `note ${s}`),
-  fc.tuple(quantity, quantity).map(([a, b]) => `conditions ${a}, ${b}`),
-  fc.tuple(fc.constantFrom(...NAMES), quantity).map(([nm, q]) => `let ${nm} = ${q}`),
-  fc.constant('cell'),
-  fc.tuple(indent, fc.constantFrom('polypropylene', 'pvdf', 'glass')).map(([i, m]) => `${i}vessel ${m}`),
-  fc.tuple(indent, fc.constantFrom(...NAMES), quantity).map(([i, nm, q]) => `${i}compartment ${nm} ${q}`),
-  fc.tuple(indent, fc.constantFrom(...KINDS), fc.constantFrom(...NAMES), fc.constantFrom(...NAMES), fc.option(quantity)).map(
-    ([i, k, a, b, q]) => `${i}separator ${k} between ${a} and ${b}${q === null ? '' : `, area ${q}`}`,
-  ),
-  fc.tuple(indent, fc.constantFrom('anode', 'cathode'), fc.constantFrom('nickel', 'mmo-titanium', 'copper'), fc.constantFrom(...NAMES), fc.option(quantity)).map(
-    ([i, r, m, c, q]) => `${i}${r} ${m} in ${c}${q === null ? '' : `, area ${q}`}`,
-  ),
-  fc.tuple(fc.constantFrom(...NAMES), fc.array(fc.tuple(fc.constantFrom(...FORMULAS, 'water'), quantity, fc.option(quantity)), { minLength: 1, maxLength: 3 })).map(
-    ([c, items]) => `charge ${c}: ${items.map(([f, q, conc]) => (conc === null ? `${f} ${q}` : `${f} solution ${q} at ${conc}`)).join(', ')}`,
-  ),
-  fc.tuple(fc.constantFrom('1', '2', 'main', 'x', '🧪'), fc.array(fc.tuple(fc.constantFrom('current', 'voltage', 'for', 'efficiency', 'curent'), quantity), { minLength: 0, maxLength: 4 })).map(
-    ([l, cl]) => `step ${l}: ${cl.map(([k, q]) => `${k} ${q}`).join(', ')}`,
-  ),
-  fc.tuple(fc.constantFrom('expect', 'observe'), fc.constantFrom(...FORMULAS), quantity, fc.option(fc.constantFrom(...NAMES))).map(
-    ([k, f, q, c]) => `${k} ${f} ${q}${c === null ? '' : ` in ${c}`}`,
-  ),
-  fc.tuple(fc.constantFrom(...KINDS), fc.string({ maxLength: 20 })).map(([k, s]) => `handling ${k}: ${s}`),
-)
-/** A line of random tokens glued with random separators. */
-const tokenLine = fc
-  .tuple(indent, fc.array(fc.tuple(token, fc.constantFrom(' ', '', ', ', ': ', '  ')), { maxLength: 12 }))
-  .map(([i, toks]) => i + toks.map(([t, sep]) => t + sep).join(''))
-/** A line with a trailing comment, or a template line broken by an edit. */
-const brokenLine = fc.oneof(
-  fc.tuple(templateLine, fc.string({ maxLength: 10 })).map(([l, c]) => `${l} # ${c}`),
-  fc.tuple(templateLine, fc.nat(), fc.nat({ max: 5 }), token).map(([l, at, del, t]) => {
-    const p = at % (l.length + 1)
-    return l.slice(0, p) + t + l.slice(p + del)
-  }),
-)
-const protocolLine = fc.oneof(
-  { arbitrary: templateLine, weight: 5 },
-  { arbitrary: tokenLine, weight: 3 },
-  { arbitrary: brokenLine, weight: 3 },
-  { arbitrary: fc.constantFrom('', '   ', '# comment', '\t'), weight: 1 },
-)
-/** A well-formed cell so that generated steps and yields reach the Faraday and feed-limit code. */
-const CELL = [
-  'let area = 50 cm^2',
-  'cell',
-  '  compartment feed 500 mL',
-  '  compartment product 250 mL',
-  '  separator cation-exchange between feed and product, area area',
-  '  anode nickel in feed, area area',
-  '  cathode nickel in product, area area',
-  'charge feed: K2CO3 180 g, water 420 mL',
-].join('\n')
-const protocolText = fc
-  .tuple(fc.boolean(), fc.array(fc.tuple(protocolLine, NEWLINE), { maxLength: 25 }), fc.boolean())
-  .map(([withCell, lines, trailing]) => {
-    const body = lines.map(([l, nl]) => l + nl).join('')
-    return (withCell ? CELL + '\n' : '') + (trailing ? body : body.replace(/(\r\n|\r|\n)$/, ''))
-  })
-
-const lone16 = fc.string({ unit: fc.integer({ min: 0, max: 0xffff }).map((c) => String.fromCharCode(c)), maxLength: 200 })
-
-// ------------------------------------------------------------------------------------------------
-// Mutations of real protocols
-
-type Mutation =
-  | { op: 'delete'; at: number; len: number }
-  | { op: 'duplicate'; line: number }
-  | { op: 'insert'; at: number; text: string }
-  | { op: 'swap'; a: number; b: number }
-  | { op: 'digits'; at: number; with: string }
-
-const mutation: fc.Arbitrary<Mutation> = fc.oneof(
-  fc.record({ op: fc.constant('delete' as const), at: fc.nat(), len: fc.integer({ min: 1, max: 60 }) }),
-  fc.record({ op: fc.constant('duplicate' as const), line: fc.nat() }),
-  fc.record({
-    op: fc.constant('insert' as const),
-    at: fc.nat(),
-    text: fc.oneof(token, NEWLINE, fc.string({ maxLength: 8 }), fc.string({ unit: 'binary', maxLength: 4 }), protocolLine.map((l) => `\n${l}\n`)),
-  }),
-  fc.record({ op: fc.constant('swap' as const), a: fc.nat(), b: fc.nat() }),
-  fc.record({ op: fc.constant('digits' as const), at: fc.nat(), with: fc.constantFrom('0', '9', '', '-', '1e400', '0.000', '99999999', 'O', '.') }),
-)
-
-function mutate(text: string, m: Mutation): string {
-  const lines = text.split('\n')
-  switch (m.op) {
-    case 'delete': {
-      const at = m.at % (text.length + 1)
-      return text.slice(0, at) + text.slice(at + m.len)
-    }
-    case 'duplicate': {
-      const i = m.line % lines.length
-      lines.splice(i, 0, lines[i])
-      return lines.join('\n')
-    }
-    case 'insert': {
-      const at = m.at % (text.length + 1)
-      return text.slice(0, at) + m.text + text.slice(at)
-    }
-    case 'swap': {
-      const a = m.a % lines.length
-      const b = m.b % lines.length
-      ;[lines[a], lines[b]] = [lines[b], lines[a]]
-      return lines.join('\n')
-    }
-    case 'digits': {
-      const digits = [...text.matchAll(/\d+/g)]
-      if (digits.length === 0) return text
-      const d = digits[m.at % digits.length]
-      return text.slice(0, d.index!) + m.with + text.slice(d.index! + d[0].length)
-    }
-  }
-}
-
-const mutations = fc.array(mutation, { minLength: 1, maxLength: 5 })
-const mutatedExample = fc
-  .tuple(fc.constantFrom(...EXAMPLES.map((e) => e.text)), mutations)
-  .map(([text, ms]) => ms.reduce(mutate, text))
-
-// ------------------------------------------------------------------------------------------------
+const EXAMPLES = loadExamples(join(ROOT, 'examples'))
+const mutatedExamples = mutatedExample(EXAMPLES)
 
 describe('analyze on arbitrary text', () => {
   it('never throws and keeps every span in range: ASCII-ish strings', () => {
@@ -337,6 +77,13 @@ describe('mutation fuzzing of the examples', () => {
   }
 })
 
+describe('the property of `npm run fuzz` (test/fuzz/run.ts), CI-sized', () => {
+  // The standalone runner checks 100,000 of these documents; here a sample of the same property.
+  it('mutated examples and grammar-shaped protocols never throw and keep every invariant', () => {
+    fc.assert(fc.property(fuzzDocument(EXAMPLES), (s) => void checkAll(s)), runs(500))
+  }, 60_000)
+})
+
 describe('determinism', () => {
   const view = (a: Analysis) => ({
     diagnostics: a.diagnostics,
@@ -346,7 +93,7 @@ describe('determinism', () => {
 
   it('analysing the same text twice gives deep-equal results, also with other analyses in between', () => {
     fc.assert(
-      fc.property(fc.oneof(protocolText, mutatedExample), fc.oneof(protocolText, mutatedExample), (s, other) => {
+      fc.property(fc.oneof(protocolText, mutatedExamples), fc.oneof(protocolText, mutatedExamples), (s, other) => {
         const first = view(analyze(s))
         const second = view(analyze(s))
         expect(second).toEqual(first)
@@ -358,71 +105,297 @@ describe('determinism', () => {
   })
 })
 
-describe('the mathjs sandbox against hostile `let` expressions', () => {
-  const HOSTILE: [string, string][] = [
-    ['import', 'import({}, {})'],
-    ['createUnit', 'createUnit("foo")'],
-    ['evaluate', 'evaluate("1")'],
-    ['parse', 'parse("1")'],
-    ['matrix', '[1,2,3]'],
-    ['object', '{a: 1}'],
-    ['property access', 'x.constructor'],
-    ['prototype access', 'x["constructor"]["constructor"]("return process")()'],
-    ['function definition', 'f(x) = x'],
-    ['assignment', 'pi = 3'],
-    ['conditional', '1 ? 2 : 3'],
-    ['comparison', '1 == 1'],
-    ['range', '1:3'],
-    ['block', '1; 2'],
-    ['string constant', '"abc"'],
-    ['disallowed function', 'cos(0)'],
-    ['simplify', 'simplify("x + x")'],
-    ['tower of powers', '10^10^10^10'],
-    ['division by zero', '1 / 0 A'],
-    ['0/0', '0 / 0'],
-    ['10,000-deep parentheses', '('.repeat(10_000) + '1' + ')'.repeat(10_000)],
-    ['33-deep parentheses (short)', '('.repeat(33) + '1 A' + ')'.repeat(33)],
-    ['deep unary minus chain (short)', '-'.repeat(390) + '1'],
-    ['deep power chain (short)', '2^'.repeat(190) + '2'],
-    ['1 MB line', '1 + '.repeat(262_144) + '1'],
-  ]
+// ------------------------------------------------------------------------------------------------
+// Hostile input (issue #8): `import(...)`, `createUnit`, `evaluate`, property-access tricks, huge
+// exponents, 10,000-deep nesting, giant matrices and megabyte lines are each refused with an error
+// diagnostic that says what was refused, within 50 ms (megabyte lines: MEGABYTE_MS), without a
+// throw or a hang; the other lines of the document are still analysed.
 
-  for (const [what, expr] of HOSTILE) {
-    it(`${what}: an error diagnostic on the expression, fast, without throwing`, () => {
+/** On a machine overloaded by other work, CELLRUN_TIME_SCALE=2 doubles every time bound here. */
+const TIME_SCALE = Math.max(1, Number(process.env.CELLRUN_TIME_SCALE) || 1)
+/** The budget of issue #8 for a refusal. */
+const BUDGET_MS = 50 * TIME_SCALE
+/**
+ * A line of a megabyte costs the parser (comment scan, top-level split, line index) 7-17 ms in the
+ * bundled build on the development machine, twice that under vitest's module transform, and up to
+ * 67 ms with other test suites running on the same two cores. That is the parser reading the text,
+ * not the refusal (reported on issue #8), so megabyte lines are held to this looser bound.
+ */
+const MEGABYTE_MS = 100 * TIME_SCALE
+const MEGABYTE = 100_000
+const MB = 1 << 20
+/** Every timed analysis; the worst ones are printed at the end of the file. */
+const timings: { what: string; ms: number; budget: number }[] = []
+
+/**
+ * Analyse `text` and time it, after one warm-up analysis of `warmUp`: the same document with a
+ * harmless value in place of the hostile one, so the JIT's first compile is not counted and the
+ * expression cache cannot serve the measured text. Test files run in parallel on few cores, so a
+ * measurement over the budget is repeated after a pause (up to 5 attempts) and the best one counts:
+ * a slow analysis is slow every time, one descheduled by a burst of other work is not.
+ */
+function timed(what: string, text: string, warmUp: string, budget = text.length > MEGABYTE ? MEGABYTE_MS : BUDGET_MS): { a: Analysis; ms: number; budget: number } {
+  let a: Analysis | undefined
+  let best = Infinity
+  for (let attempt = 0; attempt < 5 && best >= budget; attempt++) {
+    if (attempt > 0) Atomics.wait(new Int32Array(new SharedArrayBuffer(4)), 0, 0, 100)
+    analyze(warmUp)
+    const t0 = performance.now()
+    a = analyze(text)
+    best = Math.min(best, performance.now() - t0)
+  }
+  timings.push({ what, ms: best, budget })
+  return { a: a!, ms: best, budget }
+}
+
+afterAll(() => {
+  const worst = (budget: number) => {
+    const held = timings.filter((t) => t.budget === budget)
+    if (held.length === 0) return 'none'
+    const w = held.reduce((a, t) => (t.ms > a.ms ? t : a))
+    return `${held.length} within ${budget} ms, worst ${w.ms.toFixed(1)} ms (${w.what})`
+  }
+  const others = timings.filter((t) => t.budget !== BUDGET_MS && t.budget !== MEGABYTE_MS).map((t) => `${t.what} ${t.ms.toFixed(0)} ms`)
+  console.log(`hostile input, timed: ${worst(BUDGET_MS)}; megabyte lines: ${worst(MEGABYTE_MS)}; known slow: ${others.join(', ')}`)
+})
+
+// What each refusal must say. The length and nesting caps are the documented ones (DEVELOPERS.md,
+// invariant 4: 400 characters, 32 levels).
+const fn = (name: string) => new RegExp(`the function \`${name}\` is not allowed`)
+const unknown = (name: string) => new RegExp(`unknown name \`${name}\``)
+const ACCESS = /property or index access is not allowed/
+const MATRIX = /a matrix or range is not allowed/
+const ASSIGNMENT = /assignment \(use a `let` line\) is not allowed/
+const TOO_LONG = /longer than 400 characters/
+const TOO_DEEP = /nests deeper than 32 levels/
+const NOT_FINITE = /not a finite number/
+const HUGE_POWER = /a unit raised to a power beyond \d+ \(.+\) is not allowed/
+const UNREADABLE = /cannot read this expression/
+
+const deep = (open: string, close: string, levels: number, inner = '1') => open.repeat(levels) + inner + close.repeat(levels)
+
+const HOSTILE: [what: string, expr: string, refused: RegExp][] = [
+  // The functions the sandbox disables, and others outside the allow-list.
+  ['import', 'import({}, {})', fn('import')],
+  ['import, not called', 'import', unknown('import')],
+  ['createUnit', 'createUnit("foo")', fn('createUnit')],
+  ['evaluate', 'evaluate("1")', fn('evaluate')],
+  ['parse', 'parse("1")', fn('parse')],
+  ['simplify', 'simplify("x + x")', fn('simplify')],
+  ['disallowed function', 'cos(0)', fn('cos')],
+  // Syntax outside the allow-list.
+  ['object', '{a: 1}', /an object is not allowed/],
+  ['function definition', 'f(x) = x', ASSIGNMENT],
+  ['assignment', 'pi = 3', ASSIGNMENT],
+  ['indexed assignment', 'x["a"] = 1', ASSIGNMENT],
+  ['conditional', '1 ? 2 : 3', /a conditional is not allowed/],
+  ['comparison', '1 == 1', /the operator `==` is not allowed/],
+  ['block', '1; 2', /a block of several expressions is not allowed/],
+  ['string constant', '"abc"', /only numbers are allowed as constants/],
+  // Giant matrices and ranges.
+  ['matrix literal', '[1,2,3]', MATRIX],
+  ['range', '1:3', MATRIX],
+  ['zeros(10000, 10000)', 'zeros(10000, 10000)', fn('zeros')],
+  ['ones(1e6)', 'ones(1e6)', fn('ones')],
+  ['[1:1e7]', '[1:1e7]', MATRIX],
+  ['matrix(...)', 'matrix([1, 2], [3, 4])', fn('matrix')],
+  ['identity(1e4)', 'identity(1e4)', fn('identity')],
+  ['range(1, 1e7)', 'range(1, 1e7)', fn('range')],
+  ['a 191-element matrix literal', `[${'1,'.repeat(190)}1]`, MATRIX],
+  // Huge exponents and values.
+  ['1e308 * 1e308', '1e308 * 1e308', NOT_FINITE],
+  ['10^400', '10^400', NOT_FINITE],
+  ['2^2^2^2^2^2', '2^2^2^2^2^2', NOT_FINITE],
+  ['tower of powers', '10^10^10^10', NOT_FINITE],
+  ['1e999999 A', '1e999999 A', NOT_FINITE],
+  ['(1 A)^1e9', '(1 A)^1e9', HUGE_POWER],
+  ['1 m^1e9', '1 m^1e9', HUGE_POWER],
+  ['1 m^-1e9', '1 m^-1e9', HUGE_POWER],
+  ['(1 mol)^(2^40)', '(1 mol)^(2^40)', HUGE_POWER],
+  ['division by zero', '1 / 0 A', NOT_FINITE],
+  ['0/0', '0 / 0', NOT_FINITE],
+  // Property-access tricks.
+  ['property access', 'x.constructor', ACCESS],
+  ['a.b', 'a.b', ACCESS],
+  ['optional chaining', 'x?.y', ACCESS],
+  ['index access', 'x[0]', ACCESS],
+  ['x["__proto__"]', 'x["__proto__"]', ACCESS],
+  ['[].constructor', '[].constructor', ACCESS],
+  ['prototype chain call', 'x["constructor"]["constructor"]("return process")()', UNREADABLE],
+  ['constructor.constructor call', 'constructor.constructor("return process")()', UNREADABLE],
+  ['this', 'this', unknown('this')],
+  ['constructor', 'constructor', unknown('constructor')],
+  ['__proto__', '__proto__', unknown('__proto__')],
+  ['valueOf', 'valueOf', unknown('valueOf')],
+  ['toString()', 'toString()', fn('toString')],
+  ['hasOwnProperty(...)', 'hasOwnProperty("x")', fn('hasOwnProperty')],
+  ['unicode escape in a string', 'x["\\u0063onstructor"]', ACCESS],
+  ['unicode escape in a name', '\\u0063onstructor', UNREADABLE],
+  ['fullwidth letters', 'ｃｏｎｓｔｒｕｃｔｏｒ', UNREADABLE],
+  // Nesting: deeper than the cap within the length cap, and 10,000 deep of every kind of bracket.
+  ['33-deep ( )', deep('(', ')', 33, '1 A'), TOO_DEEP],
+  ['33-deep [ ]', deep('[', ']', 33), TOO_DEEP],
+  ['33-deep { }', deep('{', '}', 33), TOO_DEEP],
+  ['33-deep ([{ mixed', deep('([{', '}])', 11), TOO_DEEP],
+  ['33-deep sqrt( )', deep('sqrt(', ')', 33, '1 A'), TOO_DEEP],
+  ['deep unary minus chain (short)', '-'.repeat(390) + '1', TOO_DEEP],
+  ['deep power chain (short)', '2^'.repeat(190) + '2', TOO_DEEP],
+  ['10,000-deep ( )', deep('(', ')', 10_000), TOO_LONG],
+  ['10,000-deep [ ]', deep('[', ']', 10_000), TOO_LONG],
+  ['10,000-deep { }', deep('{', '}', 10_000), TOO_LONG],
+  ['10,000-deep ([{ mixed', deep('([{', '}])', 3_334), TOO_LONG],
+  ['10,000-deep sqrt( )', deep('sqrt(', ')', 10_000), TOO_LONG],
+  ['10,000-deep abs( )', deep('abs(', ')', 10_000), TOO_LONG],
+  ['10,000 unary minus signs', '-'.repeat(10_000) + '1', TOO_LONG],
+  ['10,000-deep power chain', '2^'.repeat(10_000) + '2', TOO_LONG],
+  // Megabyte expressions.
+  ['1 MB sum', '1 + '.repeat(MB / 4) + '1', TOO_LONG],
+  ['1 MB number', '9'.repeat(MB), TOO_LONG],
+  ['1 MB name', 'a'.repeat(MB), TOO_LONG],
+]
+
+describe('hostile expressions in a `let` line', () => {
+  for (const [what, expr, refused] of HOSTILE) {
+    it(`${what}: one error that says what was refused, in time; the next line is analysed`, () => {
       const line = `let x = ${expr}`
-      const text = `${line}\nlet y = 2 A\n`
-      const exprStart = 'let x = '.length
-      const t0 = performance.now()
-      const a = analyze(text)
-      const ms = performance.now() - t0
-      expect(ms, `${what} took ${ms.toFixed(1)} ms`).toBeLessThan(200)
-      const errors = a.diagnostics.filter((d) => d.severity === 'error' && (d.code === 'bad-expression' || d.code === 'syntax'))
-      expect(errors.length, JSON.stringify(a.diagnostics.map((d) => [d.code, d.message.slice(0, 120)]))).toBeGreaterThanOrEqual(1)
+      const { a, ms, budget } = timed(`let x = ${what}`, `${line}\nlet y = 2 A\n`, 'let x = 3 A\nlet y = 2 A\n')
+      expect(ms, `${what} took ${ms.toFixed(1)} ms`).toBeLessThan(budget)
+      const errors = a.diagnostics.filter((d) => d.severity === 'error')
+      expect(errors.map((d) => d.message)).toEqual([expect.stringMatching(refused)])
       // The error points into the expression, not somewhere else.
-      for (const d of errors) {
-        expect(d.span.start).toBeGreaterThanOrEqual(exprStart)
-        expect(d.span.end).toBeLessThanOrEqual(line.length)
-      }
+      expect(errors[0].span.start).toBeGreaterThanOrEqual('let x = '.length)
+      expect(errors[0].span.end).toBeLessThanOrEqual(line.length)
       // The hostile value was not bound; the next line is unaffected.
       expect(a.model.values.has('x')).toBe(false)
-      expect(a.model.values.has('y')).toBe(true)
+      expect(toNumber(a.model.values.get('y')!, 'A')).toBe(2)
       expect(a.diagnostics.filter((d) => d.span.start > line.length)).toEqual([])
     })
   }
+})
 
-  it('the same hostile expressions as step clauses and charge amounts are refused too', () => {
-    for (const [what, expr] of HOSTILE) {
-      if (expr.length > 1000) continue
-      for (const line of [`step 1: current ${expr} for 1 h`, `charge feed: NaCl ${expr}`, `conditions ${expr}`]) {
-        const t0 = performance.now()
-        const a = checkAll(line)
-        expect(performance.now() - t0, `${what} in ${line.slice(0, 40)}`).toBeLessThan(200)
-        expect(
-          a.diagnostics.some((d) => d.severity === 'error' && (d.code === 'bad-expression' || d.code === 'syntax')),
-          `${what} in \`${line.slice(0, 60)}\`: ${JSON.stringify(a.diagnostics.map((d) => d.code))}`,
-        ).toBe(true)
+/** A working protocol with `line` in it, and lines after it that must still be analysed. */
+const inProtocol = (line: string) => `${CELL}\n${line}\nlet y = 2 A\nstep after: current y for 1 h\n`
+const LINE_OF_HOSTILE = CELL.split('\n').length
+
+/** Check that the analysis of inProtocol(line) still did the lines after it: y = 2 A, and step `after` passed Q = I·t = 2 A × 3600 s. */
+function expectRestAnalysed(a: Analysis): void {
+  expect(toNumber(a.model.values.get('y')!, 'A')).toBe(2)
+  expect(a.model.steps.find((s) => s.label === 'after')?.chargeC).toBeCloseTo(7200, 9)
+}
+
+// The step parser (parser.ts, splitWords) takes 30-65 ms over a 1 MB step line in the bundled build
+// on the development machine, up to about 300 ms under vitest with other suites running; reported
+// on issue #8. Until that is fixed a 1 MB step line gets this no-hang bound.
+const KNOWN_SLOW_STEP_MS = 1000 * TIME_SCALE
+
+describe('hostile expressions in the other statements', () => {
+  const CONTEXTS: [where: string, line: (expr: string) => string, harmless: string][] = [
+    ['a step clause', (e) => `step bad: current ${e} for 1 h`, '3 A'],
+    ['a charge amount', (e) => `charge feed: NaCl ${e}`, '10 g'],
+    ['a solution concentration', (e) => `charge feed: NaCl solution 1 L at ${e}`, '1 mol/L'],
+    ['a conditions line', (e) => `conditions ${e}`, '25 degC'],
+  ]
+  for (const [where, line, harmless] of CONTEXTS) {
+    it(`in ${where}: each is refused with one error that says what, in time; the lines after it are analysed`, () => {
+      for (const [what, expr, refused] of HOSTILE) {
+        const hostile = line(expr)
+        const slow = where === 'a step clause' && hostile.length > MEGABYTE
+        const { a, ms, budget } = timed(`${what} in ${where}`, inProtocol(hostile), inProtocol(line(harmless)), slow ? KNOWN_SLOW_STEP_MS : undefined)
+        expect(ms, `${what} in ${where} took ${ms.toFixed(1)} ms`).toBeLessThan(budget)
+        const errors = a.diagnostics.filter((d) => d.severity === 'error')
+        expect(errors.map((d) => d.message), `${what} in ${where}`).toEqual([expect.stringMatching(refused)])
+        const at = a.index.lineStart(LINE_OF_HOSTILE)
+        expect(errors[0].span.start, what).toBeGreaterThanOrEqual(at + hostile.indexOf(expr))
+        expect(errors[0].span.end, what).toBeLessThanOrEqual(at + hostile.indexOf(expr) + expr.length)
+        expectRestAnalysed(a)
       }
-    }
+    }, 60_000)
+  }
+})
+
+describe('megabyte lines in every kind of statement', () => {
+  const sum = '1 + '.repeat(MB / 4) + '1'
+  const words = 'word '.repeat(MB / 5)
+  const REFUSED: [what: string, line: string, harmless: string][] = [
+    ['a 1 MB charge line (the amount)', `charge feed: NaCl ${sum} g`, 'charge feed: NaCl 1 g'],
+    ['a 1 MB charge line (a solution concentration)', `charge feed: NaCl solution 1 L at ${sum} g/L`, 'charge feed: NaCl solution 1 L at 1 g/L'],
+    ['a 1 MB charge line (a solution amount)', `charge feed: NaCl solution ${sum} L at 1 g/L`, 'charge feed: NaCl solution 1 L at 1 g/L'],
+    ['a 1 MB conditions line', `conditions ${sum} degC`, 'conditions 25 degC'],
+    ['a 1 MB expect line', `expect KOH ${sum} g in product`, 'expect KOH 1 g in product'],
+  ]
+  for (const [what, line, harmless] of REFUSED) {
+    it(`${what}: refused as too long in time; the lines after it are analysed`, () => {
+      const { a, ms, budget } = timed(what, inProtocol(line), inProtocol(harmless))
+      expect(ms, `${what} took ${ms.toFixed(1)} ms`).toBeLessThan(budget)
+      expect(a.diagnostics.filter((d) => d.severity === 'error').map((d) => d.message)).toEqual([expect.stringMatching(TOO_LONG)])
+      expectRestAnalysed(a)
+    })
+  }
+
+  // Free text is not evaluated, so there is nothing to refuse: no diagnostic on the line at all.
+  const FREE: [what: string, line: string, harmless: string][] = [
+    ['a 1 MB note', `note ${sum}`, 'note hello'],
+    ['a 1 MB comment line', `# ${sum}`, '# hello'],
+    ['a 1 MB comment after a statement', `let z = 1 A # ${words}`, 'let z = 1 A # hello'],
+    ['a 1 MB run title', `run "${words}"`, 'run "hello"'],
+    ['a 1 MB handling line', `handling hood: ${words}`, 'handling hood: hello'],
+  ]
+  for (const [what, line, harmless] of FREE) {
+    it(`${what}: read as free text in time; the lines after it are analysed`, () => {
+      const { a, ms, budget } = timed(what, inProtocol(line), inProtocol(harmless))
+      expect(ms, `${what} took ${ms.toFixed(1)} ms`).toBeLessThan(budget)
+      const at = a.index.lineStart(LINE_OF_HOSTILE)
+      expect(a.diagnostics.filter((d) => d.span.start >= at && d.span.start <= at + line.length)).toEqual([])
+      expectRestAnalysed(a)
+    })
+  }
+
+  it('a 1 MB comment after a statement does not stop the statement from being read', () => {
+    const a = analyze(inProtocol(`let z = 1 A # ${words}`))
+    expect(toNumber(a.model.values.get('z')!, 'A')).toBe(1)
+  })
+
+  // Known gaps, reported on issue #8 (outside the expression sandbox, so not fixed here):
+  it('a 1 MB step line: refused as too long; slow in the parser (see KNOWN_SLOW_STEP_MS) but no hang', () => {
+    const line = `step bad: current ${sum} A for 1 h`
+    const { a, ms } = timed('a 1 MB step line', inProtocol(line), inProtocol('step bad: current 1 A for 1 h'), KNOWN_SLOW_STEP_MS)
+    expect(ms).toBeLessThan(KNOWN_SLOW_STEP_MS)
+    expect(a.diagnostics.filter((d) => d.severity === 'error').map((d) => d.message)).toEqual([expect.stringMatching(TOO_LONG)])
+    expectRestAnalysed(a)
+  })
+
+  it('a 1 MB chemical formula in a charge: not refused yet and slow (formula code), but no throw, no hang, the rest analysed', () => {
+    const line = `charge feed: ${'NaCl'.repeat(MB / 4)} 1 g`
+    const { a, ms } = timed('a 1 MB chemical formula in a charge', inProtocol(line), inProtocol('charge feed: NaCl 1 g'), 5000 * TIME_SCALE)
+    expect(ms).toBeLessThan(5000 * TIME_SCALE)
+    expectRestAnalysed(a)
+  }, 20_000)
+})
+
+describe('powers of units', () => {
+  it('a huge power is refused also when the exponent comes from a named value', () => {
+    const a = analyze('let n = 1e9\nlet x = 1 m^n\nlet y = 2 A\n')
+    expect(a.diagnostics.filter((d) => d.severity === 'error').map((d) => d.message)).toEqual([expect.stringMatching(HUGE_POWER)])
+    expect(a.model.values.has('x')).toBe(false)
+    expect(toNumber(a.model.values.get('y')!, 'A')).toBe(2)
+  })
+
+  it('ordinary powers of units still work', () => {
+    const a = analyze('let area = (10 cm)^2\nlet v = (10 cm)^3\nlet j = 3 A / (50 cm^2)\nlet r = sqrt(4 m^2)\nlet w = 2 kg m^2 s^-3\n')
+    expect(a.diagnostics.filter((d) => d.severity === 'error')).toEqual([])
+    const v = (name: string, unit: string) => toNumber(a.model.values.get(name)!, unit)
+    expect(v('area', 'cm^2')).toBeCloseTo(100, 9) // 10 cm × 10 cm
+    expect(v('v', 'L')).toBeCloseTo(1, 9) // 1000 cm³ = 1 L
+    expect(v('j', 'A/m^2')).toBeCloseTo(600, 9) // 3 A / 0.005 m²
+    expect(v('r', 'm')).toBeCloseTo(2, 9) // √(4 m²)
+    expect(v('w', 'W')).toBeCloseTo(2, 9) // 1 W = 1 kg·m²·s⁻³
+  })
+
+  it(`the cap: a unit to the power ${MAX_UNIT_POWER} passes, to ${MAX_UNIT_POWER + 1} is refused`, () => {
+    const a = analyze(`let ok = (1 m)^${MAX_UNIT_POWER}\nlet bad = (1 m)^${MAX_UNIT_POWER + 1}\n`)
+    expect(a.model.values.has('ok')).toBe(true)
+    expect(a.model.values.has('bad')).toBe(false)
+    expect(a.diagnostics.filter((d) => d.severity === 'error').map((d) => d.message)).toEqual([expect.stringMatching(HUGE_POWER)])
   })
 })
 
