@@ -14,7 +14,7 @@
 //   edit    a full analysis after a one-character edit, with what the last analysis left (what
 //           every keystroke costs in the editor)
 import { spawn } from 'node:child_process'
-import { existsSync } from 'node:fs'
+import { existsSync, readFileSync } from 'node:fs'
 import { join } from 'node:path'
 import { createMessageConnection, StreamMessageReader, StreamMessageWriter } from 'vscode-jsonrpc/node'
 import YAML from 'yaml'
@@ -163,6 +163,7 @@ async function keystrokes(): Promise<void> {
   conn.listen()
   await conn.sendRequest('initialize', { processId: process.pid, rootUri: null, capabilities: { textDocument: { inlayHint: {}, publishDiagnostics: { versionSupport: true } } } })
   conn.sendNotification('initialized', {})
+  const idleRss = rssOf(child.pid)
 
   const g = generateProtocol(1_000)
   const uri = 'file:///bench/generated-1000.cellrun'
@@ -224,8 +225,33 @@ async function keystrokes(): Promise<void> {
   row('typing in a note', note)
   row('typing in a step', step)
   console.log('')
+
+  // The server's memory: idle, with the 1,000-line document, and with a 10,000-line one as well.
+  const with1k = rssOf(child.pid)
+  const big = generateProtocol(10_000)
+  const bigOpened = new Promise<void>((resolve) => waiting.set(1_000_000, resolve))
+  conn.sendNotification('textDocument/didOpen', { textDocument: { uri: 'file:///bench/generated-10000.cellrun', languageId: 'cellrun', version: 1_000_000, text: big.text } })
+  await bigOpened
+  const with10k = rssOf(child.pid)
+  console.log('Language server memory (resident set, from /proc)')
+  console.log('')
+  console.log(`idle after start           ${pad(idleRss?.toFixed(0) ?? '?', 5)} MB`)
+  console.log(`with the 1,000-line file   ${pad(with1k?.toFixed(0) ?? '?', 5)} MB`)
+  console.log(`and a 10,000-line file     ${pad(with10k?.toFixed(0) ?? '?', 5)} MB  (the 10,000-line file adds ${with10k !== undefined && with1k !== undefined ? (with10k - with1k).toFixed(0) : '?'} MB)`)
+  console.log('')
   conn.dispose()
   child.kill()
+}
+
+/** Resident set size of a process in MB (Linux /proc), or undefined elsewhere. */
+function rssOf(pid: number | undefined): number | undefined {
+  try {
+    const status = readFileSync(`/proc/${pid}/status`, 'utf8')
+    const kb = /VmRSS:\s+(\d+)\s+kB/.exec(status)
+    return kb ? Number(kb[1]) / 1024 : undefined
+  } catch {
+    return undefined
+  }
 }
 
 async function main(): Promise<void> {
