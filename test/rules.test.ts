@@ -12,6 +12,7 @@ import { fileURLToPath } from 'node:url'
 import { describe, expect, it } from 'vitest'
 import { analyze, type Analysis } from '../server/src/core/analyze'
 import { RULES } from '../server/src/rules'
+import { toNumber } from '../server/src/core/units'
 import { marked } from './support/markers'
 import { ruleTester } from './support/rule-tester'
 
@@ -399,6 +400,13 @@ describe('shadows-unit', () => {
     const { a } = at(src, 'shadows-unit', 'error')
     // 1 A × 90 min = 1.5 A·h = 5400 C (arithmetic): `min` still means minutes
     expect(a.model.totals.chargeC).toBeCloseTo(5400, 9)
+  })
+
+  it('a value named like a constant is an error too: `pi` keeps meaning π', () => {
+    const { a, ds } = at('let ⟦pi⟧ = 2 A\nlet x = pi * 1 A\n', 'shadows-unit', 'error')
+    expect(ds[0].message).toMatch(/built-in constant/)
+    // π = 3.14159265… (mathematical constant): the `let` did not change it
+    expect(toNumber(a.model.values.get('x')!, 'A')).toBeCloseTo(Math.PI, 12)
   })
 
   it('is silent for names that are not units', () => {

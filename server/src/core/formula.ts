@@ -659,33 +659,32 @@ function safeParse(text: string): Internal {
   return hit
 }
 
+/** The longest formula read (the largest in common use are well under 100 characters). */
+export const MAX_FORMULA_LENGTH = 200
+
 function safeParseUncached(t: string): Internal {
+  if (t.length > MAX_FORMULA_LENGTH) return failed(t, `a formula longer than ${MAX_FORMULA_LENGTH} characters is not read`)
   try {
     return parseInternal(t, true)
   } catch (e) {
     // Defensive: a bug here must not take the caller down.
-    const message = e instanceof Error ? e.message : String(e)
-    return {
-      formula: {
-        text: t,
-        counts: new Map(),
-        charge: 0,
-        molarMass: NaN,
-        hydrateWater: 0,
-        issues: [
-          {
-            code: 'formula-syntax',
-            severity: 'error',
-            message: `Internal error while reading the formula: ${message}`,
-            start: 0,
-            end: t.length,
-          },
-        ],
-        ok: false,
-      },
-      roles: new Array<Role>(t.length).fill('plain'),
-      chargeStart: t.length,
-    }
+    return failed(t, `Internal error while reading the formula: ${e instanceof Error ? e.message : String(e)}`)
+  }
+}
+
+function failed(t: string, message: string): Internal {
+  return {
+    formula: {
+      text: t,
+      counts: new Map(),
+      charge: 0,
+      molarMass: NaN,
+      hydrateWater: 0,
+      issues: [{ code: 'formula-syntax', severity: 'error', message, start: 0, end: t.length }],
+      ok: false,
+    },
+    roles: new Array<Role>(t.length).fill('plain'),
+    chargeStart: t.length,
   }
 }
 

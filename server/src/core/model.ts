@@ -26,6 +26,7 @@ import {
   formatValue,
   gasVolumeText,
   inKindUnit,
+  isConstantName,
   isUnitSymbol,
   kindOf,
   type ExprFailure,
@@ -321,7 +322,8 @@ export function buildModel(tree: SyntaxTree, options: ModelOptions = {}): Model 
   const inOrder = from !== undefined ? [...tree.lines.slice(from), ...tree.lines.slice(0, from)] : tree.lines
   for (const n of inOrder) {
     if (n.kind !== 'let') continue
-    const shadowsUnit = isUnitSymbol(n.name.text)
+    // A unit's name, or a constant's (`pi` always means π in an expression): the value would be ignored.
+    const shadowsUnit = isUnitSymbol(n.name.text) || isConstantName(n.name.text)
     m.declarations.push({ line: n.line, tok: n.name, of: 'value', ...(shadowsUnit ? { shadowsUnit } : {}) })
     const q = ev.quantity(n, n.expr, `the value of \`${n.name.text}\``, ANY_KIND)
     q.anyKind = true

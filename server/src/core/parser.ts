@@ -120,6 +120,10 @@ function moved<T>(v: T, shift: number, lineShift: number): T {
   return out as T
 }
 
+/** The longest statement (comment excluded) that is read; see parseLine. */
+export const MAX_STATEMENT_LENGTH = 32_768
+/** Statements whose text is not evaluated, so any length is cheap. */
+const FREE_TEXT: ReadonlySet<string> = new Set(['note', 'run', 'handling', 'material'])
 const STATEMENT_SET: ReadonlySet<string> = new Set(STATEMENT_KEYWORDS)
 const CELL_SET: ReadonlySet<string> = new Set(CELL_KEYWORDS)
 // Sticky patterns (flag y) match at lastIndex: no copy of the rest of the line per token, so a
@@ -199,6 +203,15 @@ function parseLine(raw: string, base: number, line: number, inCell: boolean): Li
         indent,
         indent + word.length,
         guess ? { start: indent, end: indent + word.length, newText: guess, title: `Change to \`${guess}\`` } : undefined,
+      )
+    }
+    // Cost bound: a statement that is evaluated (amounts, charges, steps, reactions) is read only up
+    // to this length; free text (a note, a title, a handling line) and comments may be longer.
+    if (content.length - indent > MAX_STATEMENT_LENGTH && !FREE_TEXT.has(kwText)) {
+      throw new LineError(
+        `this \`${kwText}\` line is longer than ${MAX_STATEMENT_LENGTH} characters and is not read; split it over several lines (or into named values with \`let\`)`,
+        indent,
+        content.length,
       )
     }
     const isCellChild = CELL_SET.has(kwText)

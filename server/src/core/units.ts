@@ -365,6 +365,8 @@ export function clearExpressionCache(): void {
 }
 
 function compiled(text: string): CompileResult {
+  // Refused at once, and not kept: a pasted megabyte must not stay in memory as a cache key.
+  if (text.length > MAX_EXPRESSION_LENGTH) return compile(text)
   let c = cache.get(text)
   if (!c) {
     c = compile(text)
@@ -581,6 +583,11 @@ export function formatValue(v: Value): string {
 /** Is this name a unit (so a `let` of that name would change what the unit means)? */
 export function isUnitSymbol(name: string): boolean {
   return isUnitName(name)
+}
+
+/** Is this name a built-in constant (`pi`), which always wins over a `let` of that name? */
+export function isConstantName(name: string): boolean {
+  return CONSTANTS.has(name)
 }
 
 /** Format rounding toward zero, for a limit that must not be exceeded once rounded. */

@@ -1,12 +1,13 @@
-// shadows-unit: a `let` value named like a unit (`min`, `h`, `A`, `g`...). Letting it stand would
+// shadows-unit: a `let` value named like a unit (`min`, `h`, `A`, `g`...) or a constant (`pi`). Letting it stand would
 // silently change what every `90 min` or `2 h` in the protocol means, so the value is not defined
 // and the line is an error until it gets another name.
+import { isConstantName } from '../core/units'
 import type { Rule } from './rule'
 
 export const shadowsUnit: Rule = {
   code: 'shadows-unit',
   severity: 'error',
-  summary: 'A named value that has the name of a unit, which would change what that unit means elsewhere.',
+  summary: 'A named value that has the name of a unit (which would change what that unit means elsewhere) or of a built-in constant (which would be ignored).',
   check({ model }) {
     return model.declarations.flatMap((d) =>
       d.shadowsUnit
@@ -14,7 +15,9 @@ export const shadowsUnit: Rule = {
             {
               code: 'shadows-unit',
               severity: 'error' as const,
-              message: `\`${d.tok.text}\` is a unit; a value of that name would change what \`${d.tok.text}\` means in every expression. Choose another name`,
+              message: isConstantName(d.tok.text)
+                ? `\`${d.tok.text}\` is a built-in constant; it keeps its meaning in every expression and this value would be ignored. Choose another name`
+                : `\`${d.tok.text}\` is a unit; a value of that name would change what \`${d.tok.text}\` means in every expression. Choose another name`,
               span: d.tok.span,
               fixes: [],
             },
