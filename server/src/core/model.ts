@@ -426,6 +426,57 @@ const ANY_KIND: readonly Kind[] = [
 
 const WATER_NAMES = new Set(['water', 'H2O'])
 
+/**
+ * A computed value whose working is written when first read (`working` is a getter). In JSON it is
+ * the same as a plain Computed, with the keys in the same order.
+ */
+class DeferredComputed implements Computed {
+  readonly line: number
+  readonly span: Span
+  readonly anchor: number
+  readonly key: string
+  readonly label: string
+  readonly value?: number
+  readonly unit?: string
+  readonly title: string
+  #make: (() => string[]) | undefined
+  #working: string[] | undefined
+
+  constructor(at: { line: number; span: Span }, c: Omit<Computed, 'line' | 'span' | 'anchor' | 'working'>, make: () => string[]) {
+    this.line = at.line
+    this.span = at.span
+    this.anchor = at.span.end
+    this.key = c.key
+    this.label = c.label
+    if (c.value !== undefined) this.value = c.value
+    if (c.unit !== undefined) this.unit = c.unit
+    this.title = c.title
+    this.#make = make
+  }
+
+  get working(): string[] {
+    if (!this.#working) {
+      this.#working = this.#make!()
+      this.#make = undefined
+    }
+    return this.#working
+  }
+
+  toJSON(): Computed {
+    return {
+      line: this.line,
+      span: this.span,
+      anchor: this.anchor,
+      key: this.key,
+      label: this.label,
+      ...(this.value !== undefined ? { value: this.value } : {}),
+      ...(this.unit !== undefined ? { unit: this.unit } : {}),
+      title: this.title,
+      working: this.working,
+    }
+  }
+}
+
 class Evaluator {
   constructor(private readonly m: Model) {}
 
@@ -435,20 +486,9 @@ class Evaluator {
    * a report), not on every keystroke for every step of a long protocol.
    */
   private hintAt(at: { line: number; span: Span }, c: Omit<Computed, 'line' | 'span' | 'anchor' | 'working'> & { working: string[] | (() => string[]) }): void {
-    const out = { line: at.line, span: at.span, anchor: at.span.end, ...c }
     const working = c.working
-    if (typeof working === 'function') {
-      // Redefined in place: the property keeps its position among the keys (reports list them in order).
-      const make = deferred(working)
-      let value: string[] | undefined
-      Object.defineProperty(out, 'working', {
-        enumerable: true,
-        configurable: true,
-        get: () => (value ??= make()),
-        set: (v: string[]) => (value = v),
-      })
-    }
-    this.m.computed.push(out as Computed)
+    if (typeof working === 'function') this.m.computed.push(new DeferredComputed(at, c, deferred(working)))
+    else this.m.computed.push({ line: at.line, span: at.span, anchor: at.span.end, ...c, working })
   }
 
   quantity(

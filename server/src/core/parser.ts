@@ -61,9 +61,13 @@ export function reparse(prev: { text: string; tree: SyntaxTree; index: LineIndex
   if (prev.tree.lines.length !== prev.index.lineCount) return parse(text, index)
   // The common prefix and suffix (not overlapping) of the two texts, in UTF-16 units.
   const max = Math.min(old.length, text.length)
+  // Whole blocks compared natively first, then character by character in the block that differs.
+  const BLOCK = 1024
   let p = 0
+  while (p + BLOCK <= max && old.slice(p, p + BLOCK) === text.slice(p, p + BLOCK)) p += BLOCK
   while (p < max && old.charCodeAt(p) === text.charCodeAt(p)) p++
   let q = 0
+  while (q + BLOCK <= max - p && old.slice(old.length - q - BLOCK, old.length - q) === text.slice(text.length - q - BLOCK, text.length - q)) q += BLOCK
   while (q < max - p && old.charCodeAt(old.length - 1 - q) === text.charCodeAt(text.length - 1 - q)) q++
   // Lines wholly before the change keep their nodes. One line of margin: a line break may be half of
   // a changed "\r\n", and a line's end depends on its break.
