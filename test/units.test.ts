@@ -9,9 +9,11 @@
 //   - Molar concentration 1 M = 1 mol/L (IUPAC Green Book, 3rd ed., section 2.10, "molar" unit M).
 //   - Percent: 1 % = 0.01 (ISO 80000-1).
 // Every other expected value is hand arithmetic from those definitions, written out beside it.
+import * as fc from 'fast-check'
 import { describe, expect, it } from 'vitest'
 import {
   evaluateExpression,
+  isValuelessUnitFast,
   fmt,
   inKindUnit,
   isUnit,
@@ -392,5 +394,101 @@ describe('fmt', () => {
   it('non-finite numbers are printed as such', () => {
     expect(fmt(Infinity)).toBe('Infinity')
     expect(fmt(NaN)).toBe('NaN')
+  })
+})
+
+describe('the fast unit-name test agrees with mathjs', () => {
+  // The oracle is mathjs's own Unit.isValuelessUnit on the same instance (our units included).
+  const table = sandbox.unitTable()
+
+  it('on every unit name, and on every allowed prefix with every unit', () => {
+    let checked = 0
+    for (const u of table) {
+      expect(isValuelessUnitFast(u.name), u.name).toBe(sandbox.mathjsIsValuelessUnit(u.name))
+      for (const p of u.prefixes) {
+        const name = p + u.name
+        expect(isValuelessUnitFast(name), name).toBe(sandbox.mathjsIsValuelessUnit(name))
+        checked++
+      }
+    }
+    expect(checked).toBeGreaterThan(1000) // mathjs knows hundreds of units, most with 20+ prefixes
+  })
+
+  it('on names that are not units, near misses and random strings', () => {
+    const prefixes = [...new Set(table.flatMap((u) => u.prefixes))]
+    const names = table.map((u) => u.name)
+    const near = fc.oneof(
+      fc.string({ maxLength: 8 }),
+      fc.tuple(fc.constantFrom(...prefixes), fc.constantFrom(...names)).map(([p, n]) => p + n),
+      fc.tuple(fc.constantFrom(...prefixes, 'x', 'j', 'q'), fc.constantFrom(...names), fc.constantFrom('', '1', 's', '_')).map(([p, n, t]) => p + n + t),
+      fc.constantFrom('area', 'j12', 'feed', 'panel', 'inH2O', 'mmHg', 'kk', 'mmm', 'Ah', 'mAh', 'kAh', 'wtpct', 'degC', ''),
+    )
+    fc.assert(
+      fc.property(near, (name) => isValuelessUnitFast(name) === sandbox.mathjsIsValuelessUnit(name)),
+      { numRuns: 3000, seed: 11 },
+    )
+  })
+})
+
+describe('our tree-walking evaluation agrees with mathjs compile()', () => {
+  // The oracle is mathjs's own compile().evaluate() of the same parsed expression, with the same scope
+  // (named values, and the unit values evaluateExpression places for unit names).
+  const UNITS = ['g', 'kg', 'mL', 'L', 'A', 'mA', 'h', 'min', 's', 'cm', 'mol', 'V', 'Ah', 'wtpct']
+  const scope = () => {
+    const m = new Map<string, unknown>()
+    for (const u of UNITS) m.set(u, sandbox.unitValue(u))
+    m.set('area', value('36 cm^2'))
+    m.set('j', value('40 mA/cm^2'))
+    m.set('n', value('3'))
+    return m
+  }
+  const num = fc.oneof(fc.integer({ min: 0, max: 1000 }).map(String), fc.constantFrom('0.5', '1e3', '2.5e-3', '0', '1e308'))
+  const expr: fc.Arbitrary<string> = fc.letrec((tie) => ({
+    atom: fc.oneof(
+      num,
+      fc.tuple(num, fc.constantFrom(...UNITS)).map(([a, u]) => `${a} ${u}`),
+      fc.constantFrom('area', 'j', 'n', 'pi'),
+    ),
+    expr: fc.oneof(
+      { arbitrary: tie('atom'), weight: 4 },
+      fc.tuple(tie('expr'), fc.constantFrom(' + ', ' - ', ' * ', ' / ', ' '), tie('expr')).map(([a, op, b]) => `${a}${op}${b}`),
+      tie('expr').map((e) => `(${e})`),
+      tie('expr').map((e) => `-${e}`),
+      fc.tuple(tie('atom'), fc.constantFrom('2', '3', '-1', '0.5')).map(([a, p]) => `(${a})^${p}`),
+      fc.tuple(fc.constantFrom('sqrt', 'abs'), tie('expr')).map(([f, e]) => `${f}(${e})`),
+    ),
+  })).expr as fc.Arbitrary<string>
+
+  const outcome = (f: () => unknown): string => {
+    try {
+      const v = f()
+      if (typeof v === 'number') return `number ${Object.is(v, -0) ? '-0' : String(v)}`
+      if (isUnit(v)) return `unit ${v.formatUnits()} ${String(v.value)}`
+      return `other ${String(v)}`
+    } catch (e) {
+      return 'throws'
+    }
+  }
+
+  it('the same value (or both refuse) over 3,000 generated expressions', () => {
+    let compared = 0
+    let capped = 0
+    fc.assert(
+      fc.property(expr, (e) => {
+        if (e.length > MAX_EXPRESSION_LENGTH) return
+        const ours = outcome(() => sandbox.cellrunEvaluate(e, scope()))
+        const theirs = outcome(() => sandbox.mathjsEvaluate(e, scope()))
+        // Where ours refuses and mathjs evaluates, it is one of our caps (nesting, huge powers).
+        if (ours === 'throws' && theirs !== 'throws') {
+          capped++
+          return
+        }
+        compared++
+        expect(ours, e).toBe(theirs)
+      }),
+      { numRuns: 3000, seed: 5 },
+    )
+    // The comparison is not vacuous: nearly every expression is compared value for value.
+    expect(compared).toBeGreaterThan(20 * capped)
   })
 })
