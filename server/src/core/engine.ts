@@ -317,13 +317,15 @@ class Ledger {
 
   add(p: Omit<Product, 'mol' | 'mol100'>, mol: number): void {
     if (!(mol > 0)) return
-    const k = `${p.formula}@${p.compartment}`
+    const k = p.formula + '@' + p.compartment
     let cur = this.formed.get(k)
     if (!cur) {
-      cur = { ...p, mol: 0, mol100: 0 }
+      // Written out (not spread): one object shape for every product keeps this hot path fast.
+      cur = { formula: p.formula, electrons: p.electrons, compartment: p.compartment, origin: p.origin, gas: p.gas, equation: p.equation, reason: p.reason, mol: 0, mol100: 0 }
       this.formed.set(k, cur)
     }
-    cur[this.key] += mol
+    if (this.key === 'mol') cur.mol += mol
+    else cur.mol100 += mol
   }
 }
 
