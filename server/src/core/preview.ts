@@ -91,8 +91,9 @@ function simulationSections(analysis: Analysis, sim: SimResult): string[] {
   // Per-step table.
   const names = sim.final.map((c) => c.name)
   const head = ['Step', 'Ends at', 'Current efficiency', 'Main product', ...names.map((n) => `pH ${n}`), 'Temperature']
+  const labelAt = new Map(m.steps.map((s) => [s.line, s.label]))
   const rows = sim.steps.map((st) => {
-    const label = m.steps.find((s) => s.line === st.line)?.label ?? String(st.line + 1)
+    const label = labelAt.get(st.line) ?? String(st.line + 1)
     const cells: string[] = [`step ${label}`, clock(st.endTime)]
     if (st.electronMol <= 0) {
       cells.push('no current', '—')

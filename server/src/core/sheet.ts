@@ -32,10 +32,12 @@ function sections(a: Analysis): { title: string; parts: Section[] } {
 
   // Pick list: every charge item with what to weigh or measure.
   const pick: string[][] = [['compartment', 'substance', 'as written', 'amount', 'weighed / measured']]
+  const itemAt = new Map<number, (typeof a.computed)[number]>()
+  for (const x of a.computed) if (x.key === 'charge.item' && !itemAt.has(x.span.start)) itemAt.set(x.span.start, x)
   for (const n of a.tree.lines) {
     if (n.kind !== 'charge') continue
     for (const item of n.items) {
-      const c = a.computed.find((x) => x.key === 'charge.item' && x.span.start === item.span.start)
+      const c = itemAt.get(item.span.start)
       pick.push([n.compartment.text, prettyFormula(item.formula.text), a.text.slice(item.span.start, item.span.end), c?.label ?? '', ''])
     }
   }
@@ -44,10 +46,12 @@ function sections(a: Analysis): { title: string; parts: Section[] } {
   // Timeline.
   const timeline: string[][] = [['step', 'from (h)', 'to (h)', 'current', 'charge', 'products', 'done']]
   let t = 0
+  const productsAt = new Map<number, string>()
+  for (const c of a.computed) if (c.key === 'step.products' && !productsAt.has(c.line)) productsAt.set(c.line, c.label)
   for (const s of m.steps) {
     const start = t
     t += s.seconds ?? 0
-    const prod = a.computed.find((c) => c.key === 'step.products' && c.line === s.line)?.label.replace(/^→ /, '') ?? ''
+    const prod = productsAt.get(s.line)?.replace(/^→ /, '') ?? ''
     timeline.push([s.label, fmt(start / 3600), fmt(t / 3600), s.currentA !== undefined ? `${fmt(s.currentA)} A` : s.voltageV !== undefined ? `${fmt(s.voltageV)} V` : '', s.chargeC !== undefined ? `${fmt(s.chargeC / 3600)} A·h` : '', prod, '☐'])
   }
   if (m.steps.length) parts.push({ title: 'Timeline', table: timeline })

@@ -82,8 +82,15 @@ interface Compiled {
 
 type CompileResult = Compiled | { ok: false; failure: ExprFailure }
 
-const cache = new Map<string, CompileResult>()
-const CACHE_LIMIT = 5000
+/**
+ * Compiled expressions by text, in two generations: when the current one is full it becomes the
+ * previous one, and what the next analyses use again moves back. So a document with more distinct
+ * expressions than one generation holds keeps all of them between keystrokes, and the memory stays
+ * bounded (at most two generations).
+ */
+let cache = new Map<string, CompileResult>()
+let previousCache = new Map<string, CompileResult>()
+const CACHE_LIMIT = 20_000
 
 /** Replace the typographic forms we accept with mathjs syntax, keeping a map back to the original offsets. */
 export function normalise(text: string): { text: string; map: number[] } {
@@ -415,6 +422,7 @@ function describeNode(type: string): string {
 /** Forget compiled expressions and their last results (for benchmarks that measure a first analysis). */
 export function clearExpressionCache(): void {
   cache.clear()
+  previousCache.clear()
   unitNames.clear()
 }
 
@@ -423,8 +431,11 @@ function compiled(text: string): CompileResult {
   if (text.length > MAX_EXPRESSION_LENGTH) return compile(text)
   let c = cache.get(text)
   if (!c) {
-    c = compile(text)
-    if (cache.size >= CACHE_LIMIT) cache.clear()
+    c = previousCache.get(text) ?? compile(text)
+    if (cache.size >= CACHE_LIMIT) {
+      previousCache = cache
+      cache = new Map()
+    }
     cache.set(text, c)
   }
   return c

@@ -10,9 +10,12 @@ export const belowReversible: Rule = {
   check({ model }) {
     const v = model.voltages
     if (!v || v.reversible <= 0) return []
+    // The voltage clause of each step line, looked up once (not searched for every step).
+    const voltageOn = new Map<number, (typeof model.quantities)[number]>()
+    for (const x of model.quantities) if (x.keyword?.text === 'voltage' && !voltageOn.has(x.line)) voltageOn.set(x.line, x)
     return model.steps.flatMap((s) => {
       if (s.voltageV === undefined || s.voltageV >= v.reversible) return []
-      const q = model.quantities.find((x) => x.line === s.line && x.keyword?.text === 'voltage')
+      const q = voltageOn.get(s.line)
       return [
         {
           code: 'below-reversible',

@@ -23,8 +23,9 @@ export function litresPerMol(model: Model): number {
 /** The highest rate at which a gas comes off in any step, L/h at the run's conditions. */
 export function peakGasRate(model: Model, formula: string): number {
   let peak = 0
+  const stepAt = new Map(model.steps.map((s) => [s.line, s]))
   for (const sp of model.engine?.steps ?? []) {
-    const step = model.steps.find((s) => s.line === sp.line)
+    const step = stepAt.get(sp.line)
     if (!step?.seconds) continue
     const mol = sp.products.filter((p) => p.formula === formula).reduce((t, p) => t + p.mol, 0)
     peak = Math.max(peak, (mol * litresPerMol(model)) / (step.seconds / 3600))

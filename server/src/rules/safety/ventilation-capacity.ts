@@ -54,8 +54,9 @@ export function ceil2(n: number): number {
 /** The highest hydrogen flow of any step, L/h at the run's conditions, and the step. */
 function peakHydrogen(model: Model): { lph: number; label: string } | undefined {
   let best: { lph: number; label: string } | undefined
+  const stepAt = new Map(model.steps.map((s) => [s.line, s]))
   for (const sp of model.engine?.steps ?? []) {
-    const step = model.steps.find((s) => s.line === sp.line)
+    const step = stepAt.get(sp.line)
     if (!step?.seconds) continue
     const mol = sp.products.filter((p) => p.formula === 'H2').reduce((t, p) => t + p.mol, 0)
     const lph = (mol * litresPerMol(model)) / (step.seconds / 3600)
