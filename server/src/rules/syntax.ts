@@ -1,5 +1,5 @@
 // syntax: a line the parser could not read. The parser suggests a fix for a misspelt keyword.
-import { fix } from '../core/diagnostics'
+import { fix, type Diagnostic } from '../core/diagnostics'
 import type { Rule } from './rule'
 
 export const syntax: Rule = {
@@ -7,18 +7,11 @@ export const syntax: Rule = {
   severity: 'error',
   summary: 'A line that does not follow the protocol format.',
   check({ model }) {
-    return model.tree.lines.flatMap((n) =>
-      n.kind === 'error'
-        ? [
-            {
-              code: 'syntax',
-              severity: 'error' as const,
-              message: n.message,
-              span: n.errorSpan,
-              fixes: n.fix ? [fix(n.fix.title, n.fix.span, n.fix.newText)] : [],
-            },
-          ]
-        : [],
-    )
+    const out: Diagnostic[] = []
+    for (const n of model.tree.lines) {
+      if (n.kind !== 'error') continue
+      out.push({ code: 'syntax', severity: 'error', message: n.message, span: n.errorSpan, fixes: n.fix ? [fix(n.fix.title, n.fix.span, n.fix.newText)] : [] })
+    }
+    return out
   },
 }
