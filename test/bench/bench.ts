@@ -106,7 +106,8 @@ function measureSize(lines: number, rounds: number): Row {
     parse: median(t.parse),
     first: median(t.first),
     edit: median(t.edit),
-    retainedMB: retained / 2 ** 20,
+    // (a small document keeps less than the measurement's noise: shown as 0.0)
+    retainedMB: Math.max(0, retained / 2 ** 20),
     rssMB: rss / 2 ** 20,
   }
 }
@@ -255,7 +256,7 @@ function rssOf(pid: number | undefined): number | undefined {
 }
 
 async function main(): Promise<void> {
-  console.log(`Cellrun benchmark, node ${process.version}, ${quick ? 'quick' : 'full'} rounds${gc === undefined ? '' : ''}`)
+  console.log(`Cellrun benchmark, node ${process.version}, ${quick ? 'quick' : 'full'} rounds`)
   console.log('')
   printSizes(sizes())
   await keystrokes()
