@@ -14,6 +14,7 @@ import { describe, expect, it } from 'vitest'
 import {
   evaluateExpression,
   isValuelessUnitFast,
+  simpleTree,
   fmt,
   inKindUnit,
   isUnit,
@@ -490,5 +491,56 @@ describe('our tree-walking evaluation agrees with mathjs compile()', () => {
     )
     // The comparison is not vacuous: nearly every expression is compared value for value.
     expect(compared).toBeGreaterThan(20 * capped)
+  })
+})
+
+describe('the trees built without the parser are the parser\'s trees', () => {
+  // The oracle is mathjs's own parser on the same (normalised) text.
+  type Shape = { type: string; fn?: string; op?: string; implicit?: boolean; name?: string; value?: unknown; args?: Shape[] }
+  const shape = (n: unknown): Shape => {
+    const x = n as Shape & { args?: unknown[] }
+    return {
+      type: x.type,
+      ...(x.fn !== undefined ? { fn: typeof x.fn === 'string' ? x.fn : 'node' } : {}),
+      ...(x.op !== undefined ? { op: x.op } : {}),
+      ...(x.type === 'OperatorNode' ? { implicit: !!x.implicit } : {}),
+      ...(x.name !== undefined ? { name: x.name } : {}),
+      ...(x.type === 'ConstantNode' ? { value: x.value } : {}),
+      ...(x.args ? { args: x.args.map(shape) } : {}),
+    }
+  }
+  const num = fc.oneof(fc.nat({ max: 100000 }).map(String), fc.constantFrom('0.5', '1e3', '2.5E-3', '007', '1e400', '0.000', '12.75'))
+  const name = fc.oneof(
+    fc.constantFrom('g', 'kg', 'mL', 'A', 'mA', 'min', 'h', 'area', 'j12', 'x_1', 'e', 'i', 'pi', 'Infinity', 'NaN', 'percent', 'wtpct', 'degC'),
+    fc.constantFrom('in', 'to', 'mod', 'and', 'or', 'not', 'xor', 'true', 'false', 'null', 'undefined', 'end'),
+  )
+  const ws = fc.constantFrom('', ' ', '  ', '\t')
+  const term = fc.oneof(num, name)
+  const text = fc.oneof(
+    fc.tuple(ws, term, ws).map(([a, t, b]) => a + t + b),
+    fc.tuple(num, fc.constantFrom(' ', '  ', '\t'), name).map(([n, w, u]) => n + w + u),
+    fc.tuple(name, fc.constantFrom(' ', '  '), name).map(([a, w, b]) => a + w + b),
+    fc.tuple(term, ws, fc.constantFrom('*', '/', '+', '-', '^'), ws, term).map(([a, w1, op, w2, b]) => a + w1 + op + w2 + b),
+    fc.tuple(term, ws, term, fc.constantFrom('', ' kg', ' * 2')).map(([a, w, b, c]) => a + w + b + c),
+  )
+
+  it('the same tree as mathjs parses, for every text it builds one for', () => {
+    let built = 0
+    let passed = 0
+    fc.assert(
+      fc.property(text, (t) => {
+        const ours = simpleTree(t)
+        if (!ours) {
+          passed++
+          return
+        }
+        built++
+        expect(shape(ours), JSON.stringify(t)).toEqual(shape(sandbox.mathjsParse(t)))
+      }),
+      { numRuns: 4000, seed: 3 },
+    )
+    // Both kinds are exercised: many built directly, many handed to the parser.
+    expect(built).toBeGreaterThan(1000)
+    expect(passed).toBeGreaterThan(500)
   })
 })

@@ -239,7 +239,7 @@ function compile(text: string): CompileResult {
   const back = (i: number) => norm.map[Math.max(0, Math.min(i, norm.map.length - 1))]
   let root: MathNode
   try {
-    root = privateParse(norm.text) as MathNode
+    root = simpleTree(norm.text) ?? (privateParse(norm.text) as MathNode)
   } catch (e) {
     const msg = e instanceof Error ? e.message : String(e)
     const m = /\(char (\d+)\)/.exec(msg)
@@ -345,6 +345,40 @@ function compile(text: string): CompileResult {
   const checked = root
   const code: Compiled['code'] = { evaluate: (scope) => refuseHugePowers(evalNode(checked, scope)) }
   return { ok: true, code, names, unitSymbols: [...unitSymbols] }
+}
+
+/**
+ * The tree mathjs's parser would build for the commonest expressions, built directly (the parser
+ * is most of the cost of a first analysis): `NUMBER`, `NAME`, `NUMBER NAME` (`200 g`, an implicit
+ * multiplication) and `X * Y` or `X / Y` of numbers and names (`j * area`). Anything else, and any
+ * name the parser reads as a keyword or operator, goes to the parser. A property test checks that
+ * the result equals the parser's for generated expressions of these shapes and near misses.
+ */
+const SIMPLE = /^\s*(?:(\d+(?:\.\d+)?(?:[eE][+-]?\d+)?)|([A-Za-z_][A-Za-z0-9_]*))(?:(\s+)([A-Za-z_][A-Za-z0-9_]*)|\s*([*/])\s*(?:(\d+(?:\.\d+)?(?:[eE][+-]?\d+)?)|([A-Za-z_][A-Za-z0-9_]*)))?\s*$/
+/** Words mathjs's parser reads as constants or operators, not as names. */
+const PARSER_WORDS = new Set(['true', 'false', 'null', 'undefined', 'NaN', 'Infinity', 'mod', 'to', 'in', 'and', 'or', 'xor', 'not', 'end'])
+type NodeClasses = {
+  ConstantNode: new (v: number) => MathNode
+  SymbolNode: new (name: string) => MathNode
+  OperatorNode: new (op: string, fn: string, args: MathNode[], implicit?: boolean) => MathNode
+}
+const nodes = math as unknown as NodeClasses
+
+export function simpleTree(t: string): MathNode | undefined {
+  const m = SIMPLE.exec(t)
+  if (!m) return undefined
+  const [, num1, name1, , implicitName, op, num2, name2] = m
+  for (const w of [name1, implicitName, name2]) if (w !== undefined && PARSER_WORDS.has(w)) return undefined
+  const leaf = (num?: string, name?: string): MathNode => (num !== undefined ? new nodes.ConstantNode(Number(num)) : new nodes.SymbolNode(name!))
+  const left = leaf(num1, name1)
+  if (implicitName !== undefined) {
+    // `200 g`: mathjs multiplies a number and a name written side by side; two names side by side
+    // are left to the parser.
+    if (num1 === undefined) return undefined
+    return new nodes.OperatorNode('*', 'multiply', [left, new nodes.SymbolNode(implicitName)], true)
+  }
+  if (op === undefined) return left
+  return new nodes.OperatorNode(op, op === '*' ? 'multiply' : 'divide', [left, leaf(num2, name2)], false)
 }
 
 type MathFn = (...args: unknown[]) => unknown
@@ -756,6 +790,10 @@ function stripZeros(s: string): string {
 
 /** The disabled functions, exported so tests can prove they stay disabled. */
 export const sandbox = {
+  /** mathjs's parser, to check simpleTree against. */
+  mathjsParse(text: string): MathNode {
+    return privateParse(text) as MathNode
+  },
   /** mathjs's own compile and evaluate of a (normalised) expression, to check evalNode against. */
   mathjsEvaluate(text: string, scope: Map<string, unknown>): unknown {
     return (privateParse(normalise(text).text) as MathNode).compile().evaluate(scope)
