@@ -374,12 +374,17 @@ describe('megabyte lines in every kind of statement', () => {
     ['a charge line of 100,000 items', 'charge feed: ' + Array.from({ length: 100_000 }, () => 'NaCl 1 g').join(', '), 'charge feed: NaCl 1 g'],
     ['a 1 MB reaction line', 'reaction anode: ' + '2 Cl- + '.repeat(MB / 8) + 'x -> Cl2 + 2 e-', 'reaction anode: 2 Cl- -> Cl2 + 2 e-'],
     ['a 1 MB formula in an expect line', `expect ${'NaCl'.repeat(MB / 4)} 1 g in feed`, 'expect NaCl 1 g in feed'],
+    // Found in review: a misspelt keyword was read (and suggested) before the cap applied.
+    ['a 1 MB line with a misspelt keyword', 'stpe ' + 'ab '.repeat(MB / 3), 'stpe ab'],
+    ['a 1 MB keyword', 'stepx' + 'x'.repeat(MB), 'stepx'],
   ]
   for (const [what, line, harmless] of CAPPED) {
     it(`${what}: refused as too long in time; the lines after it are analysed`, () => {
       const { a, ms, budget } = timed(what, inProtocol(line), inProtocol(harmless))
       expect(ms, `${what} took ${ms.toFixed(1)} ms`).toBeLessThan(budget)
       expect(a.diagnostics.filter((d) => d.severity === 'error').map((d) => d.message)).toEqual([expect.stringMatching(LINE_TOO_LONG)])
+      // The message is short, whatever the line (it goes to the editor on every keystroke).
+      expect(Math.max(...a.diagnostics.map((d) => d.message.length))).toBeLessThan(300)
       expectRestAnalysed(a)
     })
   }

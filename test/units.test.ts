@@ -514,11 +514,12 @@ describe('the trees built without the parser are the parser\'s trees', () => {
     fc.constantFrom('g', 'kg', 'mL', 'A', 'mA', 'min', 'h', 'area', 'j12', 'x_1', 'e', 'i', 'pi', 'Infinity', 'NaN', 'percent', 'wtpct', 'degC'),
     fc.constantFrom('in', 'to', 'mod', 'and', 'or', 'not', 'xor', 'true', 'false', 'null', 'undefined', 'end'),
   )
-  const ws = fc.constantFrom('', ' ', '  ', '\t')
+  // Including white space the parser does not skip (it refuses those): they must go to the parser.
+  const ws = fc.constantFrom('', ' ', '  ', '\t', '\u00a0', '\u3000', '\u2028', '\v', '\ufeff', '\n', '\r')
   const term = fc.oneof(num, name)
   const text = fc.oneof(
     fc.tuple(ws, term, ws).map(([a, t, b]) => a + t + b),
-    fc.tuple(num, fc.constantFrom(' ', '  ', '\t'), name).map(([n, w, u]) => n + w + u),
+    fc.tuple(num, fc.constantFrom(' ', '  ', '\t', '\u00a0', '\u3000', '\v'), name).map(([n, w, u]) => n + w + u),
     fc.tuple(name, fc.constantFrom(' ', '  '), name).map(([a, w, b]) => a + w + b),
     fc.tuple(term, ws, fc.constantFrom('*', '/', '+', '-', '^'), ws, term).map(([a, w1, op, w2, b]) => a + w1 + op + w2 + b),
     fc.tuple(term, ws, term, fc.constantFrom('', ' kg', ' * 2')).map(([a, w, b, c]) => a + w + b + c),
@@ -535,12 +536,18 @@ describe('the trees built without the parser are the parser\'s trees', () => {
           return
         }
         built++
-        expect(shape(ours), JSON.stringify(t)).toEqual(shape(sandbox.mathjsParse(t)))
+        let theirs: Shape
+        try {
+          theirs = shape(sandbox.mathjsParse(t))
+        } catch (e) {
+          throw new Error(`built a tree for ${JSON.stringify(t)}, which mathjs refuses: ${String(e)}`)
+        }
+        expect(shape(ours), JSON.stringify(t)).toEqual(theirs)
       }),
       { numRuns: 4000, seed: 3 },
     )
     // Both kinds are exercised: many built directly, many handed to the parser.
-    expect(built).toBeGreaterThan(1000)
+    expect(built).toBeGreaterThan(300)
     expect(passed).toBeGreaterThan(500)
   })
 })

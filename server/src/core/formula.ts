@@ -640,30 +640,37 @@ function parseInternal(text: string, suggest: boolean): Internal {
  * line that names one, by the simulation on every time step). The results are never changed by
  * their users (counts is a ReadonlyMap), so one object can serve every caller.
  */
-const parsedCache = new Map<string, Internal>()
+/** The longest formula read (the largest in common use are well under 100 characters). */
+export const MAX_FORMULA_LENGTH = 200
+
+let parsedCache = new Map<string, Internal>()
+let previousParsed = new Map<string, Internal>()
 const PARSED_CACHE_LIMIT = 4096
 
 /** Forget parsed formulas (for benchmarks that measure a first analysis). */
 export function clearFormulaCache(): void {
   parsedCache.clear()
+  previousParsed.clear()
 }
 
 function safeParse(text: string): Internal {
   const t = typeof text === 'string' ? text : ''
+  // Refused at once and not kept (a pasted megabyte must not stay in memory).
+  if (t.length > MAX_FORMULA_LENGTH) return failed(t, `a formula longer than ${MAX_FORMULA_LENGTH} characters is not read`)
   let hit = parsedCache.get(t)
   if (!hit) {
-    hit = safeParseUncached(t)
-    if (parsedCache.size >= PARSED_CACHE_LIMIT) parsedCache.clear()
+    // Two generations, as for compiled expressions (units.ts): what is used again moves back.
+    hit = previousParsed.get(t) ?? safeParseUncached(t)
+    if (parsedCache.size >= PARSED_CACHE_LIMIT) {
+      previousParsed = parsedCache
+      parsedCache = new Map()
+    }
     parsedCache.set(t, hit)
   }
   return hit
 }
 
-/** The longest formula read (the largest in common use are well under 100 characters). */
-export const MAX_FORMULA_LENGTH = 200
-
 function safeParseUncached(t: string): Internal {
-  if (t.length > MAX_FORMULA_LENGTH) return failed(t, `a formula longer than ${MAX_FORMULA_LENGTH} characters is not read`)
   try {
     return parseInternal(t, true)
   } catch (e) {
@@ -683,7 +690,8 @@ function failed(t: string, message: string): Internal {
       issues: [{ code: 'formula-syntax', severity: 'error', message, start: 0, end: t.length }],
       ok: false,
     },
-    roles: new Array<Role>(t.length).fill('plain'),
+    // No roles: prettyFormula shows every character as written (`plain` is what a missing role reads as).
+    roles: [],
     chargeStart: t.length,
   }
 }

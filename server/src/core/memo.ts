@@ -4,6 +4,20 @@
 // run again. Keys are the full input written as JSON, so a hit is exactly the same computation.
 // The cached results are shared: nothing that reads them may change them.
 
+/**
+ * JSON with what JSON would merge kept apart: non-finite numbers (all `null` in JSON), -0 (`0`),
+ * bigints (not written at all), undefined values, and Maps and Sets (all `{}` in JSON; written here
+ * as their entries).
+ */
+function keyPart(_k: string, v: unknown): unknown {
+  if (typeof v === 'number') return Number.isFinite(v) && !Object.is(v, -0) ? v : `#${Object.is(v, -0) ? '-0' : String(v)}`
+  if (typeof v === 'bigint') return `#${v}n`
+  if (v === undefined) return '#undefined'
+  if (v instanceof Map) return ['#Map', ...v]
+  if (v instanceof Set) return ['#Set', ...v]
+  return v
+}
+
 export class ResultCache<I, R> {
   private readonly entries = new Map<string, R>()
   hits = 0
@@ -19,7 +33,7 @@ export class ResultCache<I, R> {
   }
 
   get(input: I): R {
-    const key = JSON.stringify(input, (_k, v) => (typeof v === 'bigint' ? `${v}n` : v))
+    const key = JSON.stringify(input, keyPart)
     const hit = this.entries.get(key)
     if (hit !== undefined) {
       // Most recently used last.

@@ -378,27 +378,20 @@ export function buildModel(tree: SyntaxTree, options: ModelOptions = {}): Model 
     }
   }
   // Pass 3: charges, steps, yields, handling.
-  const T = ((globalThis as any).__T ??= {}); let t0 = performance.now(); const lap = (k: string) => { const t = performance.now(); (T[k] ??= []).push(t - t0); t0 = t }
   for (const n of tree.lines) {
     if (n.kind === 'charge') ev.charge(n)
     else if (n.kind === 'step') ev.step(n)
     else if (n.kind === 'handling') m.handling.push({ line: n.line, type: n.type, text: n.text })
     else if (n.kind === 'reaction') m.reactions.push(statedReaction(n))
   }
-  lap('pass3')
   ev.compartmentSummaries()
   ev.stepTotals()
-  lap('stepTotals')
   ev.chemistry()
-  lap('chemistry')
   for (const n of tree.lines) {
     if (n.kind === 'expect' || n.kind === 'observe') ev.yieldLine(n)
   }
-  lap('yields')
   ev.simulation(options.efficiencyFloor ?? 0.8)
-  lap('simulation')
   ev.simulatedYields()
-  lap('simYields')
   return m
 }
 

@@ -199,23 +199,25 @@ function parseLine(raw: string, base: number, line: number, inCell: boolean): Li
   const keyword: Tok = { text: kwText, span: { start: base + indent, end: base + indent + kwText.length } }
   const s = new Cursor(content, base, indent + kwText.length)
   try {
+    // Cost bound: a statement that is evaluated (amounts, charges, steps, reactions), or one whose
+    // keyword is not known, is read only up to this length; free text (a note, a title, a handling
+    // line) and comments may be longer.
+    if (content.length - indent > MAX_STATEMENT_LENGTH && !(kwMatch && FREE_TEXT.has(kwText))) {
+      const what = kwMatch && STATEMENT_SET.has(kwText) ? `this \`${kwText}\` line` : 'this line'
+      throw new LineError(
+        `${what} is longer than ${MAX_STATEMENT_LENGTH} characters and is not read; split it over several lines (or into named values with \`let\`)`,
+        indent,
+        content.length,
+      )
+    }
     if (!kwMatch || !STATEMENT_SET.has(kwText)) {
       const word = content.slice(indent).split(/[\s:]/)[0]
       const guess = closest(word, STATEMENT_KEYWORDS)
       throw new LineError(
-        kwText ? `unknown statement \`${word}\`` : 'a statement must start with a keyword',
+        kwText ? `unknown statement \`${word.length > 40 ? word.slice(0, 40) + '…' : word}\`` : 'a statement must start with a keyword',
         indent,
         indent + word.length,
         guess ? { start: indent, end: indent + word.length, newText: guess, title: `Change to \`${guess}\`` } : undefined,
-      )
-    }
-    // Cost bound: a statement that is evaluated (amounts, charges, steps, reactions) is read only up
-    // to this length; free text (a note, a title, a handling line) and comments may be longer.
-    if (content.length - indent > MAX_STATEMENT_LENGTH && !FREE_TEXT.has(kwText)) {
-      throw new LineError(
-        `this \`${kwText}\` line is longer than ${MAX_STATEMENT_LENGTH} characters and is not read; split it over several lines (or into named values with \`let\`)`,
-        indent,
-        content.length,
       )
     }
     const isCellChild = CELL_SET.has(kwText)

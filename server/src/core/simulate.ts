@@ -222,7 +222,6 @@ class Solution {
     return this.amt.get(k) ?? 0
   }
   add(k: string, v: number): void {
-    if (v === 0) return
     const n = (this.amt.get(k) ?? 0) + v
     this.amt.set(k, n < 0 && n > -1e-12 ? 0 : n)
     this.memo = undefined

@@ -203,7 +203,9 @@ const NAME_CHAR = /[\p{L}\p{N}_$]/u
 /** Whether the character at `i` (or the one just before it when `before`) belongs to a name; surrogate pairs are read whole. */
 function isNameChar(t: string, i: number, before: boolean): boolean {
   if (i < 0 || i >= t.length) return false
-  const cp = before ? (i > 0 && /[\udc00-\udfff]/.test(t[i]) ? t.codePointAt(i - 1) : t.codePointAt(i)) : t.codePointAt(i)
+  // Before a name: a low surrogate that ends a pair is read with its high half; a lone one as itself.
+  const pair = before && i > 0 && /[\udc00-\udfff]/.test(t[i]) && /[\ud800-\udbff]/.test(t[i - 1])
+  const cp = pair ? t.codePointAt(i - 1) : t.codePointAt(i)
   return cp !== undefined && NAME_CHAR.test(String.fromCodePoint(cp))
 }
 
@@ -351,10 +353,12 @@ function compile(text: string): CompileResult {
  * The tree mathjs's parser would build for the commonest expressions, built directly (the parser
  * is most of the cost of a first analysis): `NUMBER`, `NAME`, `NUMBER NAME` (`200 g`, an implicit
  * multiplication) and `X * Y` or `X / Y` of numbers and names (`j * area`). Anything else, and any
- * name the parser reads as a keyword or operator, goes to the parser. A property test checks that
- * the result equals the parser's for generated expressions of these shapes and near misses.
+ * name the parser reads as a keyword or operator, goes to the parser. White space is what the
+ * parser skips (space, tab, no-break space); any other goes to the parser, which refuses it. A
+ * property test checks that the result equals the parser's for generated expressions of these
+ * shapes and near misses.
  */
-const SIMPLE = /^\s*(?:(\d+(?:\.\d+)?(?:[eE][+-]?\d+)?)|([A-Za-z_][A-Za-z0-9_]*))(?:(\s+)([A-Za-z_][A-Za-z0-9_]*)|\s*([*/])\s*(?:(\d+(?:\.\d+)?(?:[eE][+-]?\d+)?)|([A-Za-z_][A-Za-z0-9_]*)))?\s*$/
+const SIMPLE = /^[ \t\u00a0]*(?:(\d+(?:\.\d+)?(?:[eE][+-]?\d+)?)|([A-Za-z_][A-Za-z0-9_]*))(?:([ \t\u00a0]+)([A-Za-z_][A-Za-z0-9_]*)|[ \t\u00a0]*([*/])[ \t\u00a0]*(?:(\d+(?:\.\d+)?(?:[eE][+-]?\d+)?)|([A-Za-z_][A-Za-z0-9_]*)))?[ \t\u00a0]*$/
 /** Words mathjs's parser reads as constants or operators, not as names. */
 const PARSER_WORDS = new Set(['true', 'false', 'null', 'undefined', 'NaN', 'Infinity', 'mod', 'to', 'in', 'and', 'or', 'xor', 'not', 'end'])
 type NodeClasses = {
@@ -744,7 +748,6 @@ export function gasVolumeText(litres: number, sig = labelFigures): string {
   return `${fmt(litres, sig)} L`
 }
 
-/** Run `f` with another number of significant figures for labels (fmt's default); restores it after. */
 /**
  * `f` to be run later (text that is only read when someone looks: a hover's working), in the
  * formatting settings in force now (significant figures, gas unit).
@@ -755,6 +758,7 @@ export function deferred<T>(f: () => T): () => T {
   return () => withSignificantFigures(sig, () => withGasUnit(unit, f))
 }
 
+/** Run `f` with another number of significant figures for labels (fmt's default); restores it after. */
 export function withSignificantFigures<T>(sig: number, f: () => T): T {
   const before = labelFigures
   labelFigures = Math.max(2, Math.min(8, Math.round(sig)))
@@ -788,7 +792,10 @@ function stripZeros(s: string): string {
   return s.slice(0, end)
 }
 
-/** The disabled functions, exported so tests can prove they stay disabled. */
+/**
+ * For tests only (no protocol text reaches these): the disabled functions, so tests can prove they
+ * stay disabled, and mathjs's own parser, compile and unit tests, the oracles for our faster paths.
+ */
 export const sandbox = {
   /** mathjs's parser, to check simpleTree against. */
   mathjsParse(text: string): MathNode {

@@ -1,0 +1,62 @@
+// What is kept between analyses (DEVELOPERS.md, invariant 8) must give the same result as starting
+// afresh, whatever was analysed before. Regressions found in review, and the cache key's rules.
+import { describe, expect, it } from 'vitest'
+import { analyze, clearAnalysisCaches } from '../server/src/core/analyze'
+import { ResultCache } from '../server/src/core/memo'
+
+describe('ResultCache keys', () => {
+  it('keeps apart what JSON would merge: NaN, Infinity, -Infinity, -0, undefined, bigints', () => {
+    let computed = 0
+    const cache = new ResultCache((x: { v: unknown }) => ++computed)
+    const inputs: { v: unknown }[] = [{ v: NaN }, { v: Infinity }, { v: -Infinity }, { v: null }, { v: 0 }, { v: -0 }, { v: undefined }, { v: 1n }, { v: '1n' }, {}]
+    const results = inputs.map((i) => cache.get(i))
+    // Every input is a different computation (10 of them)...
+    expect(new Set(results).size).toBe(inputs.length)
+    // ...and asking again is a hit for each (the limit is 8, so ask for the last few only).
+    expect(cache.get({ v: '1n' })).toBe(results[8])
+    expect(cache.get({})).toBe(results[9])
+  })
+
+  it('keeps apart Maps and Sets with different contents (JSON writes every one as {})', () => {
+    let computed = 0
+    const cache = new ResultCache((x: { m: unknown }) => ++computed)
+    const a = cache.get({ m: new Map([['a', 1]]) })
+    const b = cache.get({ m: new Map([['a', 2]]) })
+    const c = cache.get({ m: new Set(['a']) })
+    expect(new Set([a, b, c]).size).toBe(3)
+    expect(cache.get({ m: new Map([['a', 1]]) })).toBe(a)
+  })
+})
+
+describe('an analysis does not depend on what was analysed before', () => {
+  const CELL = ['cell', '  compartment bath 1 L', '  anode nickel in bath', '  cathode nickel in bath', ''].join('\n')
+  // Found in review: an amount that overflows to Infinity mol and one that is NaN mol gave the same
+  // engine key, so the second analysis took the first one's anode reaction.
+  const A = CELL + 'charge bath: KOH 1e306 kg, water 1 L\nstep 1: current 1 A for 1 h\n'
+  const B = CELL + 'charge bath: KOH solution 1e306 kg at 0 wt%, water 1 L\nstep 1: current 1 A for 1 h\n'
+
+  const view = (text: string) => {
+    const a = analyze(text)
+    return JSON.stringify({ d: a.diagnostics, c: a.computed, anode: a.model.engine?.anode, sim: a.model.simulation?.final })
+  }
+
+  it('B after A gives what B alone gives (and A after B what A alone gives)', () => {
+    clearAnalysisCaches()
+    const bAlone = view(B)
+    clearAnalysisCaches()
+    const aAlone = view(A)
+    clearAnalysisCaches()
+    view(A)
+    expect(view(B)).toBe(bAlone)
+    clearAnalysisCaches()
+    view(B)
+    expect(view(A)).toBe(aAlone)
+  })
+
+  it('the analysis leaves no global state behind (the core is pure)', () => {
+    const before = new Set(Object.keys(globalThis))
+    analyze(A)
+    analyze(B)
+    expect(Object.keys(globalThis).filter((k) => !before.has(k))).toEqual([])
+  })
+})
