@@ -7,8 +7,8 @@ import { ResultCache } from '../server/src/core/memo'
 describe('ResultCache keys', () => {
   it('keeps apart what JSON would merge: NaN, Infinity, -Infinity, -0, undefined, bigints', () => {
     let computed = 0
-    const cache = new ResultCache((x: { v: unknown }) => ++computed)
-    const inputs: { v: unknown }[] = [{ v: NaN }, { v: Infinity }, { v: -Infinity }, { v: null }, { v: 0 }, { v: -0 }, { v: undefined }, { v: 1n }, { v: '1n' }, {}]
+    const cache = new ResultCache((_: { v?: unknown }) => ++computed)
+    const inputs: { v?: unknown }[] = [{ v: NaN }, { v: Infinity }, { v: -Infinity }, { v: null }, { v: 0 }, { v: -0 }, { v: undefined }, { v: 1n }, { v: '1n' }, {}]
     const results = inputs.map((i) => cache.get(i))
     // Every input is a different computation (10 of them)...
     expect(new Set(results).size).toBe(inputs.length)
@@ -19,7 +19,7 @@ describe('ResultCache keys', () => {
 
   it('keeps apart Maps and Sets with different contents (JSON writes every one as {})', () => {
     let computed = 0
-    const cache = new ResultCache((x: { m: unknown }) => ++computed)
+    const cache = new ResultCache((_: { m: unknown }) => ++computed)
     const a = cache.get({ m: new Map([['a', 1]]) })
     const b = cache.get({ m: new Map([['a', 2]]) })
     const c = cache.get({ m: new Set(['a']) })
