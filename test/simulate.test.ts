@@ -449,6 +449,23 @@ describe('limiting cases', () => {
     // (the step-size rule documented in simulate.ts): 1 % (81 s) covers it.
     expect(out.time).toBeLessThanOrEqual(((0.4 * F) / (0.95 * 5)) * 1.01)
   })
+
+  it('the same run written as 500 short steps: each is a small share of the run (one or two time steps), and the copper still runs out on time', () => {
+    // With the run's budget (about 1,000 time steps per run) a 36 s step of a 5 h run is taken in one
+    // or two time steps: the 2 % rule no longer applies inside it. What must still hold: all the
+    // copper deposits, the elements balance, and the exhaustion is seen within the same 1 % window.
+    const base = PROTOCOLS['copper electrowinning, platinum anode, past the copper']
+    const steps = Array.from({ length: 500 }, (_, i) => `step s${i + 1}: current 5 A for 36 s${i < 300 ? ', efficiency 95 %' : ''}`)
+    const p = { ...base, steps }
+    const { s } = run(p)
+    expect(s.steps).toHaveLength(500)
+    expect(s.iterations).toBeLessThan(1000 + 500 + 200)
+    expect(s.deposits.Cu / 0.2 - 1).toBeCloseTo(0, 9)
+    expectConserved(chargedElements(p), s, '500 short steps')
+    const out = s.events.find((e) => e.kind === 'feed-exhausted')!
+    expect(out.time).toBeGreaterThanOrEqual((0.99 * 0.4 * F) / (0.95 * 5) - 1e-6)
+    expect(out.time).toBeLessThanOrEqual(((0.4 * F) / (0.95 * 5)) * 1.01)
+  })
 })
 
 // ---- 3. drag at steady state -------------------------------------------------------------------
