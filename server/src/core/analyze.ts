@@ -7,6 +7,7 @@ import type { Diagnostic } from './diagnostics'
 import { clearFormulaCache, prettyFormula } from './formula'
 import { buildModel, engineRuns, simulationRuns, type Computed, type Model, type ModelOptions } from './model'
 import { parse, reparse } from './parser'
+import { clearSimulationCaches } from './simulate'
 import { LineIndex, type Span } from './positions'
 import type { LineNode, SyntaxTree } from './syntax'
 import { clearExpressionCache, fmt, withGasUnit, withSignificantFigures } from './units'
@@ -31,6 +32,7 @@ export function clearAnalysisCaches(): void {
   clearFormulaCache()
   engineRuns.clear()
   simulationRuns.clear()
+  clearSimulationCaches()
 }
 
 /**

@@ -196,6 +196,12 @@ interface Species {
 }
 
 const speciesCache = new Map<string, Species>()
+
+/** Forget the species and salt tables read so far (for benchmarks that measure a first analysis). */
+export function clearSimulationCaches(): void {
+  speciesCache.clear()
+  saltTable = undefined
+}
 function species(key: string): Species {
   let s = speciesCache.get(key)
   if (!s) {

@@ -462,6 +462,7 @@ export function clearExpressionCache(): void {
   cache.clear()
   previousCache.clear()
   unitNames.clear()
+  unitValues.clear()
 }
 
 function compiled(text: string): CompileResult {
