@@ -313,10 +313,15 @@ class Solution {
     const V = this.volumeL()
     const total = this.massG()
     const m = this.mainSalt()
+    // Built by loops (same keys, same order as the Maps): one snapshot per compartment per step.
+    const species: Record<string, number> = {}
+    for (const [k, v] of this.amt) if (v > 1e-15) species[k] = v
+    const solids: Record<string, number> = {}
+    for (const [k, v] of this.solids) solids[k] = v
     const snap: CompartmentSnapshot = {
       name: this.name,
-      species: Object.fromEntries([...this.amt].filter(([, v]) => v > 1e-15)),
-      solids: Object.fromEntries(this.solids),
+      species,
+      solids,
       waterG: this.waterG(),
       massG: total,
       volumeL: V,
