@@ -20,17 +20,23 @@ export function litresPerMol(model: Model): number {
   return ((GAS_CONSTANT * model.temperatureK) / model.pressurePa) * 1000
 }
 
-/** The highest rate at which a gas comes off in any step, L/h at the run's conditions. */
-export function peakGasRate(model: Model, formula: string): number {
-  let peak = 0
+/** The step in which a gas comes off fastest, and that rate in L/h at the run's conditions; undefined when none does. */
+export function peakGasStep(model: Model, formula: string): { lph: number; label: string } | undefined {
+  let best: { lph: number; label: string } | undefined
   const stepAt = new Map(model.steps.map((s) => [s.line, s]))
   for (const sp of model.engine?.steps ?? []) {
     const step = stepAt.get(sp.line)
     if (!step?.seconds) continue
     const mol = sp.products.filter((p) => p.formula === formula).reduce((t, p) => t + p.mol, 0)
-    peak = Math.max(peak, (mol * litresPerMol(model)) / (step.seconds / 3600))
+    const lph = (mol * litresPerMol(model)) / (step.seconds / 3600)
+    if (lph > 0 && (!best || lph > best.lph)) best = { lph, label: step.label }
   }
-  return peak
+  return best
+}
+
+/** The highest rate at which a gas comes off in any step, L/h at the run's conditions (0 when none). */
+export function peakGasRate(model: Model, formula: string): number {
+  return peakGasStep(model, formula)?.lph ?? 0
 }
 
 /** Where to attach a finding about the whole cell: the `cell` line, else the first step, else line 0. */

@@ -3,11 +3,10 @@
 // vent, with no scrubber, is all that handles it.
 import type { Diagnostic } from '../../core/diagnostics'
 import { fix } from '../../core/diagnostics'
-import type { Model } from '../../core/model'
 import type { Span } from '../../core/positions'
 import { evaluateExpression, fmt, inKindUnit, kindOf } from '../../core/units'
 import type { Rule } from '../rule'
-import { appendLine, handlingOf, litresPerMol, produced } from './facts'
+import { appendLine, handlingOf, litresPerMol, peakGasStep, produced } from './facts'
 
 /** Hydrogen's lower flammable limit in air, vol % (NFPA 497 / IEC 60079-20-1, from memory). */
 export const H2_LFL_PERCENT = 4
@@ -51,20 +50,6 @@ export function ceil2(n: number): number {
   return r >= n ? r : Number((r + f).toPrecision(2))
 }
 
-/** The highest hydrogen flow of any step, L/h at the run's conditions, and the step. */
-function peakHydrogen(model: Model): { lph: number; label: string } | undefined {
-  let best: { lph: number; label: string } | undefined
-  const stepAt = new Map(model.steps.map((s) => [s.line, s]))
-  for (const sp of model.engine?.steps ?? []) {
-    const step = stepAt.get(sp.line)
-    if (!step?.seconds) continue
-    const mol = sp.products.filter((p) => p.formula === 'H2').reduce((t, p) => t + p.mol, 0)
-    const lph = (mol * litresPerMol(model)) / (step.seconds / 3600)
-    if (lph > 0 && (!best || lph > best.lph)) best = { lph, label: step.label }
-  }
-  return best
-}
-
 const HYDROGEN = /hydrogen|(^|[^A-Za-z])H2([^A-Za-z0-9]|$)|H₂/
 const CHLORINE = /chlorine|(^|[^A-Za-z])Cl2([^A-Za-z0-9]|$)|Cl₂/i
 
@@ -83,7 +68,7 @@ export const ventilationCapacity: Rule = {
   check({ model }) {
     const out: Diagnostic[] = []
     // Hydrogen: each vent or hood line that states a flow (those naming hydrogen, when some do).
-    const peak = peakHydrogen(model)
+    const peak = peakGasStep(model, 'H2')
     if (peak) {
       const withFlow = handlingOf(model, 'vent', 'hood')
         .map((h) => ({ h, flow: flowIn(h.text.text) }))
