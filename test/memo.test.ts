@@ -2,7 +2,7 @@
 // afresh, whatever was analysed before. Regressions found in review, and the cache key's rules.
 import { describe, expect, it } from 'vitest'
 import { analyze, clearAnalysisCaches } from '../server/src/core/analyze'
-import { ResultCache } from '../server/src/core/memo'
+import { GenerationalCache, ResultCache } from '../server/src/core/memo'
 
 describe('ResultCache keys', () => {
   it('keeps apart what JSON would merge: NaN, Infinity, -Infinity, -0, undefined, bigints', () => {
@@ -25,6 +25,24 @@ describe('ResultCache keys', () => {
     const c = cache.get({ m: new Set(['a']) })
     expect(new Set([a, b, c]).size).toBe(3)
     expect(cache.get({ m: new Map([['a', 1]]) })).toBe(a)
+  })
+})
+
+describe('GenerationalCache', () => {
+  it('keeps what is used again across a generation change, and computes each key once while kept', () => {
+    const made: string[] = []
+    const cache = new GenerationalCache<string, string>(3)
+    const get = (k: string) => cache.get(k, (x) => (made.push(x), x.toUpperCase()))
+    for (const k of ['a', 'b', 'c']) get(k) // generation 1 is full
+    get('d') // generation 1 becomes the previous one; d starts generation 2
+    expect(get('a')).toBe('A') // read back from the previous generation, not made again
+    expect(made).toEqual(['a', 'b', 'c', 'd'])
+    get('e') // generation 2 (d, a, e) is full
+    get('f') // previous = (d, a, e): b and c are gone
+    get('b')
+    expect(made).toEqual(['a', 'b', 'c', 'd', 'e', 'f', 'b'])
+    get('a') // still in the previous generation
+    expect(made.filter((k) => k === 'a')).toHaveLength(1)
   })
 })
 

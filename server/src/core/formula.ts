@@ -13,6 +13,7 @@
 // Molar masses use ATOMIC_WEIGHTS (elements.ts) and ignore the electron mass of ions (the usual
 // convention: the molar mass of SO4^2- is that of SO4).
 import { ATOMIC_WEIGHTS, ELEMENT_NAMES, isElementSymbol } from './elements'
+import { GenerationalCache } from './memo'
 
 export interface FormulaIssue {
   code: 'unknown-element' | 'zero-for-oxygen' | 'formula-syntax' | 'ambiguous-charge'
@@ -635,39 +636,26 @@ function parseInternal(text: string, suggest: boolean): Internal {
   return p.result()
 }
 
+/** The longest formula read (the largest in common use are well under 100 characters). */
+export const MAX_FORMULA_LENGTH = 200
+
 /**
  * Parsed formulas by text: the same few formulas are read over and over (by the model for every
  * line that names one, by the simulation on every time step). The results are never changed by
  * their users (counts is a ReadonlyMap), so one object can serve every caller.
  */
-/** The longest formula read (the largest in common use are well under 100 characters). */
-export const MAX_FORMULA_LENGTH = 200
-
-let parsedCache = new Map<string, Internal>()
-let previousParsed = new Map<string, Internal>()
-const PARSED_CACHE_LIMIT = 4096
+const parsedCache = new GenerationalCache<string, Internal>(4096)
 
 /** Forget parsed formulas (for benchmarks that measure a first analysis). */
 export function clearFormulaCache(): void {
   parsedCache.clear()
-  previousParsed.clear()
 }
 
 function safeParse(text: string): Internal {
   const t = typeof text === 'string' ? text : ''
   // Refused at once and not kept (a pasted megabyte must not stay in memory).
   if (t.length > MAX_FORMULA_LENGTH) return failed(t, `a formula longer than ${MAX_FORMULA_LENGTH} characters is not read`)
-  let hit = parsedCache.get(t)
-  if (!hit) {
-    // Two generations, as for compiled expressions (units.ts): what is used again moves back.
-    hit = previousParsed.get(t) ?? safeParseUncached(t)
-    if (parsedCache.size >= PARSED_CACHE_LIMIT) {
-      previousParsed = parsedCache
-      parsedCache = new Map()
-    }
-    parsedCache.set(t, hit)
-  }
-  return hit
+  return parsedCache.get(t, safeParseUncached)
 }
 
 function safeParseUncached(t: string): Internal {

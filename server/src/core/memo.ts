@@ -49,3 +49,34 @@ export class ResultCache<I, R> {
     return r
   }
 }
+
+/**
+ * A bounded map in two generations: when the current one is full it becomes the previous one, and
+ * an entry read from the previous one moves back. What each analysis uses again stays, even when a
+ * document has more distinct entries than one generation holds; at most two generations are kept.
+ */
+export class GenerationalCache<K, V> {
+  private current = new Map<K, V>()
+  private previous = new Map<K, V>()
+
+  constructor(private readonly limit: number) {}
+
+  /** The value for `key`, made by `make` when neither generation has it. */
+  get(key: K, make: (key: K) => V): V {
+    let v = this.current.get(key)
+    if (v === undefined) {
+      v = this.previous.get(key) ?? make(key)
+      if (this.current.size >= this.limit) {
+        this.previous = this.current
+        this.current = new Map()
+      }
+      this.current.set(key, v)
+    }
+    return v
+  }
+
+  clear(): void {
+    this.current.clear()
+    this.previous.clear()
+  }
+}

@@ -954,7 +954,7 @@ class Evaluator {
     if (run && t.chargeC > 0) {
       const parts = [formatDuration(t.seconds), `${fmt(t.chargeC / 3600)} A·h`, `${fmt(t.electronMol)} mol e⁻`]
       if (t.energyJ !== undefined) parts.push(`${fmt(t.energyJ / 3600)} W·h`)
-      const counted = this.m.steps.filter((s) => s.chargeC !== undefined).length
+      const counted = charged.length
       this.hintAt(run, {
         key: 'run.totals',
         label: parts.join(' · '),

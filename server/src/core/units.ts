@@ -9,6 +9,7 @@
 
 import { all, create } from 'mathjs'
 import type { MathNode, Unit } from 'mathjs'
+import { GenerationalCache } from './memo'
 
 const math = create(all, { number: 'number', precision: 64 })
 
@@ -82,15 +83,9 @@ interface Compiled {
 
 type CompileResult = Compiled | { ok: false; failure: ExprFailure }
 
-/**
- * Compiled expressions by text, in two generations: when the current one is full it becomes the
- * previous one, and what the next analyses use again moves back. So a document with more distinct
- * expressions than one generation holds keeps all of them between keystrokes, and the memory stays
- * bounded (at most two generations).
- */
-let cache = new Map<string, CompileResult>()
-let previousCache = new Map<string, CompileResult>()
+/** Compiled expressions by text, in two generations (see GenerationalCache): at most 2 × 20,000. */
 const CACHE_LIMIT = 20_000
+const cache = new GenerationalCache<string, CompileResult>(CACHE_LIMIT)
 
 /** Replace the typographic forms we accept with mathjs syntax, keeping a map back to the original offsets. */
 export function normalise(text: string): { text: string; map: number[] } {
@@ -460,7 +455,6 @@ function describeNode(type: string): string {
 /** Forget compiled expressions and their last results (for benchmarks that measure a first analysis). */
 export function clearExpressionCache(): void {
   cache.clear()
-  previousCache.clear()
   unitNames.clear()
   unitValues.clear()
 }
@@ -468,16 +462,7 @@ export function clearExpressionCache(): void {
 function compiled(text: string): CompileResult {
   // Refused at once, and not kept: a pasted megabyte must not stay in memory as a cache key.
   if (text.length > MAX_EXPRESSION_LENGTH) return compile(text)
-  let c = cache.get(text)
-  if (!c) {
-    c = previousCache.get(text) ?? compile(text)
-    if (cache.size >= CACHE_LIMIT) {
-      previousCache = cache
-      cache = new Map()
-    }
-    cache.set(text, c)
-  }
-  return c
+  return cache.get(text, compile)
 }
 
 export type EvalResult = { ok: true; value: Value } | { ok: false; failure: ExprFailure }
