@@ -4,6 +4,8 @@
 //
 //   npm run bench                 all of it
 //   npm run bench -- --quick      smaller rounds (a minute or so)
+//   node dist/bench.cjs --smoke   a few seconds, small sizes: that the benchmark itself still works
+//                                 (test/bench.test.ts runs it; its figures mean nothing)
 //
 // What is compared (same content, see generate.ts):
 //   split   `text.split('\n')`: the floor, nothing can read the text faster
@@ -22,7 +24,8 @@ import { analyze, clearAnalysisCaches, type Analysis } from '../../server/src/co
 import { parse } from '../../server/src/core/parser'
 import { generateProtocol } from './generate'
 
-const quick = process.argv.includes('--quick')
+const smoke = process.argv.includes('--smoke')
+const quick = smoke || process.argv.includes('--quick')
 const gc = (globalThis as { gc?: () => void }).gc ?? (() => undefined)
 
 function median(xs: number[]): number {
@@ -114,11 +117,13 @@ function measureSize(lines: number, rounds: number): Row {
 
 function sizes(): Row[] {
   // Warm the JIT on a small document first: the figures are for a server that has been running.
-  for (let i = 0; i < 20; i++) {
+  for (let i = 0; i < (smoke ? 2 : 20); i++) {
     clearAnalysisCaches()
     analyze(generateProtocol(300).text)
   }
-  const plan: [number, number][] = quick
+  const plan: [number, number][] = smoke
+    ? [[100, 3], [1_000, 3]]
+    : quick
     ? [[100, 15], [1_000, 9], [10_000, 5], [50_000, 3]]
     : [[100, 41], [1_000, 21], [10_000, 9], [50_000, 5]]
   const rows: Row[] = []
@@ -201,17 +206,18 @@ async function keystrokes(): Promise<void> {
     return took
   }
 
-  const rounds = quick ? 41 : 101
+  const rounds = smoke ? 5 : quick ? 41 : 101
   const floor: number[] = []
   const note: number[] = []
   const step: number[] = []
-  for (let r = 0; r < rounds + 10; r++) {
+  const warm = smoke ? 2 : 10
+  for (let r = 0; r < rounds + warm; r++) {
     const t0 = performance.now()
     await conn.sendRequest('cellrun/no-such-method').catch(() => undefined)
     const f = performance.now() - t0
     const n = await typeAt(noteLine, noteChar, r)
     const s = await typeAt(stepLine, stepChar, r)
-    if (r >= 10) {
+    if (r >= warm) {
       floor.push(f)
       note.push(n)
       step.push(s)
@@ -229,7 +235,7 @@ async function keystrokes(): Promise<void> {
 
   // The server's memory: idle, with the 1,000-line document, and with a 10,000-line one as well.
   const with1k = rssOf(child.pid)
-  const big = generateProtocol(10_000)
+  const big = generateProtocol(smoke ? 2_000 : 10_000)
   const bigOpened = new Promise<void>((resolve) => waiting.set(1_000_000, resolve))
   conn.sendNotification('textDocument/didOpen', { textDocument: { uri: 'file:///bench/generated-10000.cellrun', languageId: 'cellrun', version: 1_000_000, text: big.text } })
   await bigOpened
@@ -238,7 +244,8 @@ async function keystrokes(): Promise<void> {
   console.log('')
   console.log(`idle after start           ${pad(idleRss?.toFixed(0) ?? '?', 5)} MB`)
   console.log(`with the 1,000-line file   ${pad(with1k?.toFixed(0) ?? '?', 5)} MB`)
-  console.log(`and a 10,000-line file     ${pad(with10k?.toFixed(0) ?? '?', 5)} MB  (the 10,000-line file adds ${with10k !== undefined && with1k !== undefined ? (with10k - with1k).toFixed(0) : '?'} MB)`)
+  const bigName = `${big.lines.toLocaleString('en-US')}-line file`
+  console.log(`and a ${bigName.padEnd(21)}${pad(with10k?.toFixed(0) ?? '?', 5)} MB  (the ${bigName} adds ${with10k !== undefined && with1k !== undefined ? (with10k - with1k).toFixed(0) : '?'} MB)`)
   console.log('')
   conn.dispose()
   child.kill()
@@ -256,7 +263,7 @@ function rssOf(pid: number | undefined): number | undefined {
 }
 
 async function main(): Promise<void> {
-  console.log(`Cellrun benchmark, node ${process.version}, ${quick ? 'quick' : 'full'} rounds`)
+  console.log(`Cellrun benchmark, node ${process.version}, ${smoke ? 'smoke' : quick ? 'quick' : 'full'} rounds`)
   console.log('')
   printSizes(sizes())
   await keystrokes()
