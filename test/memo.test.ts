@@ -12,7 +12,7 @@ describe('ResultCache keys', () => {
     const results = inputs.map((i) => cache.get(i))
     // Every input is a different computation (10 of them)...
     expect(new Set(results).size).toBe(inputs.length)
-    // ...and asking again is a hit for each (the limit is 8, so ask for the last few only).
+    // ...and asking again is a hit (the cache keeps the last 4, so ask for the last two only).
     expect(cache.get({ v: '1n' })).toBe(results[8])
     expect(cache.get({})).toBe(results[9])
   })

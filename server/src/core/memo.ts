@@ -25,7 +25,9 @@ export class ResultCache<I, R> {
 
   constructor(
     private readonly compute: (input: I) => R,
-    private readonly limit = 8,
+    // A few: the current and the previous chemistry of a document or two (undo, switching tabs).
+    // Each entry of a long protocol's simulation is a few MB, so not more.
+    private readonly limit = 4,
   ) {}
 
   clear(): void {

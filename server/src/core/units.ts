@@ -339,9 +339,12 @@ function compile(text: string): CompileResult {
   // cost more than the rest of a first analysis.) A unit raised to a huge power (`1 m^1e9`, `(1 A)^x`
   // with a large `x`) has a finite value but no meaning: refused here, whatever the exponent came
   // from (the caller reports what this throws).
-  const checked = root
-  const code: Compiled['code'] = { evaluate: (scope) => refuseHugePowers(evalNode(checked, scope)) }
-  return { ok: true, code, names, unitSymbols: [...unitSymbols] }
+  return { ok: true, code: codeFor(root), names, unitSymbols: [...unitSymbols] }
+}
+
+/** The evaluator of a checked tree, made outside compile() so that it keeps only the tree alive (a closure made in compile() would keep its whole scope: the normalised text and its offset map). */
+function codeFor(checked: MathNode): Compiled['code'] {
+  return { evaluate: (scope) => refuseHugePowers(evalNode(checked, scope)) }
 }
 
 /**
