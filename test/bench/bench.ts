@@ -65,6 +65,7 @@ interface Row {
   first: number
   edit: number
   retainedMB: number
+  afterEditsMB: number
   rssMB: number
 }
 
@@ -101,6 +102,21 @@ function measureSize(lines: number, rounds: number): Row {
   const retained = process.memoryUsage().heapUsed - before
   const rss = process.memoryUsage().rss
   if (kept.tree.lines.length !== g.lines + 1) throw new Error(`generated ${g.lines} lines, analysed ${kept.tree.lines.length - 1}`)
+  // And after 20 edits that each change the chemistry (a different step's efficiency each time):
+  // what the caches hold once they are full.
+  let after: Analysis = kept
+  let edited = g.text
+  for (let k = 0; k < 20; k++) {
+    let found = edited.indexOf('efficiency ', Math.floor(((k + 1) * edited.length) / 22))
+    if (found < 0) found = edited.indexOf('efficiency ')
+    const at = found + 'efficiency '.length
+    edited = edited.slice(0, at) + String(k % 9 + 1) + edited.slice(at + 1)
+    after = analyze(edited, {}, after)
+  }
+  gc()
+  gc()
+  const retainedAfterEdits = process.memoryUsage().heapUsed - before
+  if (after.tree.lines.length !== kept.tree.lines.length) throw new Error('an edit changed the line count')
   return {
     lines: g.lines,
     steps: g.steps,
@@ -111,6 +127,7 @@ function measureSize(lines: number, rounds: number): Row {
     edit: median(t.edit),
     // (a small document keeps less than the measurement's noise: shown as 0.0)
     retainedMB: Math.max(0, retained / 2 ** 20),
+    afterEditsMB: Math.max(0, retainedAfterEdits / 2 ** 20),
     rssMB: rss / 2 ** 20,
   }
 }
@@ -134,11 +151,11 @@ function sizes(): Row[] {
 function printSizes(rows: Row[]): void {
   console.log('Whole-document analysis (median ms; generated membrane-cell protocols, one step per 10 lines)')
   console.log('')
-  console.log(`${pad('lines', 7)} ${pad('steps', 6)} ${pad('split', 7)} ${pad('yaml', 8)} ${pad('parse', 7)} ${pad('first', 8)} ${pad('edit', 7)}  ${pad('first/yaml', 10)} ${pad('parse/yaml', 10)} ${pad('first/split', 11)}  ${pad('heap kept', 9)} ${pad('rss', 6)}`)
+  console.log(`${pad('lines', 7)} ${pad('steps', 6)} ${pad('split', 7)} ${pad('yaml', 8)} ${pad('parse', 7)} ${pad('first', 8)} ${pad('edit', 7)}  ${pad('first/yaml', 10)} ${pad('parse/yaml', 10)} ${pad('first/split', 11)}  ${pad('heap kept', 9)} ${pad('…20 edits', 9)} ${pad('rss', 6)}`)
   for (const r of rows) {
     console.log(
       `${pad(r.lines, 7)} ${pad(r.steps, 6)} ${pad(ms(r.split), 7)} ${pad(ms(r.yaml), 8)} ${pad(ms(r.parse), 7)} ${pad(ms(r.first), 8)} ${pad(ms(r.edit), 7)}  ` +
-        `${pad((r.first / r.yaml).toFixed(2) + '×', 10)} ${pad((r.parse / r.yaml).toFixed(2) + '×', 10)} ${pad((r.first / r.split).toFixed(0) + '×', 11)}  ${pad(r.retainedMB.toFixed(1) + ' MB', 9)} ${pad(r.rssMB.toFixed(0) + ' MB', 6)}`,
+        `${pad((r.first / r.yaml).toFixed(2) + '×', 10)} ${pad((r.parse / r.yaml).toFixed(2) + '×', 10)} ${pad((r.first / r.split).toFixed(0) + '×', 11)}  ${pad(r.retainedMB.toFixed(1) + ' MB', 9)} ${pad(r.afterEditsMB.toFixed(1) + ' MB', 9)} ${pad(r.rssMB.toFixed(0) + ' MB', 6)}`,
     )
   }
   console.log('')
