@@ -7,24 +7,40 @@ import { GenerationalCache, ResultCache } from '../server/src/core/memo'
 describe('ResultCache keys', () => {
   it('keeps apart what JSON would merge: NaN, Infinity, -Infinity, -0, undefined, bigints', () => {
     let computed = 0
-    const cache = new ResultCache((_: { v?: unknown }) => ++computed)
+    const cache = new ResultCache((_: { v?: unknown }) => ++computed, 16)
     const inputs: { v?: unknown }[] = [{ v: NaN }, { v: Infinity }, { v: -Infinity }, { v: null }, { v: 0 }, { v: -0 }, { v: undefined }, { v: 1n }, { v: '1n' }, {}]
     const results = inputs.map((i) => cache.get(i))
     // Every input is a different computation (10 of them)...
     expect(new Set(results).size).toBe(inputs.length)
-    // ...and asking again is a hit (the cache keeps the last 4, so ask for the last two only).
-    expect(cache.get({ v: '1n' })).toBe(results[8])
-    expect(cache.get({})).toBe(results[9])
+    // ...and asking again is a hit for each.
+    inputs.forEach((i, k) => expect(cache.get(i)).toBe(results[k]))
+    expect(computed).toBe(inputs.length)
   })
 
   it('keeps apart Maps and Sets with different contents (JSON writes every one as {})', () => {
     let computed = 0
-    const cache = new ResultCache((_: { m: unknown }) => ++computed)
+    const cache = new ResultCache((_: { m: unknown }) => ++computed, 16)
     const a = cache.get({ m: new Map([['a', 1]]) })
     const b = cache.get({ m: new Map([['a', 2]]) })
     const c = cache.get({ m: new Set(['a']) })
     expect(new Set([a, b, c]).size).toBe(3)
     expect(cache.get({ m: new Map([['a', 1]]) })).toBe(a)
+  })
+})
+
+describe('ResultCache size', () => {
+  it('keeps the last two inputs by default (the current and the previous chemistry)', () => {
+    let computed = 0
+    const cache = new ResultCache((x: { n: number }) => (++computed, x.n))
+    cache.get({ n: 1 })
+    cache.get({ n: 2 })
+    cache.get({ n: 1 }) // hit
+    expect(computed).toBe(2)
+    cache.get({ n: 3 }) // evicts 2, the least recently used
+    cache.get({ n: 1 }) // still there
+    expect(computed).toBe(3)
+    cache.get({ n: 2 }) // made again
+    expect(computed).toBe(4)
   })
 })
 

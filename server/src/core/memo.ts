@@ -25,9 +25,9 @@ export class ResultCache<I, R> {
 
   constructor(
     private readonly compute: (input: I) => R,
-    // A few: the current and the previous chemistry of a document or two (undo, switching tabs).
-    // Each entry of a long protocol's simulation is a few MB, so not more.
-    private readonly limit = 4,
+    // Two: the current and the previous chemistry (a digit typed and taken back). Each entry of a
+    // long protocol's simulation is several MB, so not more.
+    private readonly limit = 2,
   ) {}
 
   clear(): void {
