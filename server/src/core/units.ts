@@ -349,38 +349,128 @@ function codeFor(checked: MathNode): Compiled['code'] {
 
 /**
  * The tree mathjs's parser would build for the commonest expressions, built directly (the parser
- * is most of the cost of a first analysis): `NUMBER`, `NAME`, `NUMBER NAME` (`200 g`, an implicit
- * multiplication) and `X * Y` or `X / Y` of numbers and names (`j * area`). Anything else, and any
- * name the parser reads as a keyword or operator, goes to the parser. White space is what the
- * parser skips (space, tab, no-break space); any other goes to the parser, which refuses it. A
- * property test checks that the result equals the parser's for generated expressions of these
- * shapes and near misses.
+ * is most of the cost of a first analysis). The shapes read here:
+ *
+ *   NUMBER                       `2.5`
+ *   NUMBER %                     `93 %` (a percentage: 93 / 100)
+ *   FIRST ((* | /) OPERAND)*     `200 g`, `95 mA/cm^2`, `j * area`, `1 mol / L / s`
+ *
+ * where FIRST is NUMBER, NAME, NAME^EXP or `NUMBER NAME[^EXP]` (an implicit multiplication, which
+ * mathjs reads before the explicit operators), OPERAND is NUMBER, NAME or NAME^EXP, and EXP is an
+ * integer with an optional sign. An implicit multiplication is read only at the start: after an
+ * operator mathjs has special rules for it (`2 / 3 kg` is `(2/3) kg`), left to the parser. Anything
+ * else, and any name the parser reads as a keyword or operator, goes to the parser. White space is
+ * what the parser skips (space, tab, no-break space); any other goes to the parser, which refuses
+ * it. A property test checks that the result equals the parser's for generated expressions of
+ * these shapes and near misses.
  */
-const SIMPLE = /^[ \t\u00a0]*(?:(\d+(?:\.\d+)?(?:[eE][+-]?\d+)?)|([A-Za-z_][A-Za-z0-9_]*))(?:([ \t\u00a0]+)([A-Za-z_][A-Za-z0-9_]*)|[ \t\u00a0]*([*/])[ \t\u00a0]*(?:(\d+(?:\.\d+)?(?:[eE][+-]?\d+)?)|([A-Za-z_][A-Za-z0-9_]*)))?[ \t\u00a0]*$/
+const NUMBER_AT = /\d+(?:\.\d+)?(?:[eE][+-]?\d+)?/y
+const NAME_AT = /[A-Za-z_][A-Za-z0-9_]*/y
+const INTEGER_AT = /\d+/y
 /** Words mathjs's parser reads as constants or operators, not as names. */
 const PARSER_WORDS = new Set(['true', 'false', 'null', 'undefined', 'NaN', 'Infinity', 'mod', 'to', 'in', 'and', 'or', 'xor', 'not', 'end'])
 type NodeClasses = {
   ConstantNode: new (v: number) => MathNode
   SymbolNode: new (name: string) => MathNode
-  OperatorNode: new (op: string, fn: string, args: MathNode[], implicit?: boolean) => MathNode
+  OperatorNode: new (op: string, fn: string, args: MathNode[], implicit?: boolean, isPercentage?: boolean) => MathNode
 }
 const nodes = math as unknown as NodeClasses
 
 export function simpleTree(t: string): MathNode | undefined {
-  const m = SIMPLE.exec(t)
-  if (!m) return undefined
-  const [, num1, name1, , implicitName, op, num2, name2] = m
-  for (const w of [name1, implicitName, name2]) if (w !== undefined && PARSER_WORDS.has(w)) return undefined
-  const leaf = (num?: string, name?: string): MathNode => (num !== undefined ? new nodes.ConstantNode(Number(num)) : new nodes.SymbolNode(name!))
-  const left = leaf(num1, name1)
-  if (implicitName !== undefined) {
-    // `200 g`: mathjs multiplies a number and a name written side by side; two names side by side
-    // are left to the parser.
-    if (num1 === undefined) return undefined
-    return new nodes.OperatorNode('*', 'multiply', [left, new nodes.SymbolNode(implicitName)], true)
+  const n = t.length
+  let i = 0
+  const skip = (): number => {
+    const from = i
+    for (let c = t.charCodeAt(i); c === 32 || c === 9 || c === 0xa0; c = t.charCodeAt(++i));
+    return i - from
   }
-  if (op === undefined) return left
-  return new nodes.OperatorNode(op, op === '*' ? 'multiply' : 'divide', [left, leaf(num2, name2)], false)
+  const at = (re: RegExp): string | undefined => {
+    re.lastIndex = i
+    const m = re.exec(t)
+    if (!m) return undefined
+    i += m[0].length
+    return m[0]
+  }
+  const name = (): string | null | undefined => {
+    const w = at(NAME_AT)
+    // A number may not run into a name (`2e`, `3kg`): the parser reads those its own way.
+    return w === undefined ? undefined : PARSER_WORDS.has(w) ? null : w
+  }
+  // NAME, then an optional `^ EXP`.
+  const powered = (w: string): MathNode | undefined => {
+    const sym = new nodes.SymbolNode(w)
+    const back = i
+    skip()
+    if (t.charCodeAt(i) !== 94 /* ^ */) {
+      i = back
+      return sym
+    }
+    i++
+    skip()
+    const sign = t.charCodeAt(i) === 45 /* - */ ? '-' : t.charCodeAt(i) === 43 /* + */ ? '+' : ''
+    if (sign) i++
+    const digits = at(INTEGER_AT)
+    if (digits === undefined) return undefined
+    // A number that goes on (`2.5`, `2e3`) or a second power (`cm^2^2`) is the parser's.
+    const c = t.charCodeAt(i)
+    if (c === 46 || c === 101 || c === 69 || (c >= 48 && c <= 57) || c === 95 || (c >= 65 && c <= 90) || (c >= 97 && c <= 122)) return undefined
+    const save = i
+    skip()
+    if (t.charCodeAt(i) === 94) return undefined
+    i = save
+    const exp: MathNode = new nodes.ConstantNode(Number(digits))
+    const e = sign === '' ? exp : new nodes.OperatorNode(sign, sign === '-' ? 'unaryMinus' : 'unaryPlus', [exp], false)
+    return new nodes.OperatorNode('^', 'pow', [sym, e], false)
+  }
+  // An operand after an operator: NUMBER, NAME or NAME^EXP.
+  const operand = (): MathNode | undefined => {
+    const num = at(NUMBER_AT)
+    if (num !== undefined) return nameStartsAt(t, i) ? undefined : new nodes.ConstantNode(Number(num))
+    const w = name()
+    return w ? powered(w) : undefined
+  }
+  skip()
+  let left: MathNode | undefined
+  const num = at(NUMBER_AT)
+  if (num !== undefined) {
+    if (nameStartsAt(t, i)) return undefined
+    const value = new nodes.ConstantNode(Number(num))
+    const gap = skip()
+    if (t.charCodeAt(i) === 37 /* % */) {
+      i++
+      skip()
+      return i === n ? new nodes.OperatorNode('/', 'divide', [value, new nodes.ConstantNode(100)], false, true) : undefined
+    }
+    if (gap > 0 && nameStartsAt(t, i)) {
+      const w = name()
+      if (!w) return undefined
+      const unit = powered(w)
+      if (!unit) return undefined
+      left = new nodes.OperatorNode('*', 'multiply', [value, unit], true)
+    } else left = value
+  } else {
+    const w = name()
+    if (!w) return undefined
+    left = powered(w)
+    if (!left) return undefined
+  }
+  for (;;) {
+    skip()
+    if (i === n) return left
+    const c = t.charCodeAt(i)
+    if (c !== 42 /* * */ && c !== 47 /* / */) return undefined
+    i++
+    skip()
+    const right = operand()
+    if (!right) return undefined
+    left = c === 42 ? new nodes.OperatorNode('*', 'multiply', [left, right], false) : new nodes.OperatorNode('/', 'divide', [left, right], false)
+  }
+}
+
+/** Whether a name (as NAME_AT reads one) starts at `i`. */
+function nameStartsAt(t: string, i: number): boolean {
+  const c = t.charCodeAt(i)
+  return c === 95 || (c >= 65 && c <= 90) || (c >= 97 && c <= 122)
 }
 
 type MathFn = (...args: unknown[]) => unknown
@@ -639,25 +729,31 @@ function kindOfUncached(v: Unit): Kind | 'other' {
   return 'other'
 }
 
-/** The number of `unit` in a value (e.g. toNumber(v, 'A')); plain numbers pass through. */
-export function toNumber(v: Value, unit: string): number {
+/** Each kind's stored unit, parsed once (valueless): converting to a parsed unit skips mathjs's unit parser. */
+const kindUnitRefs = new Map<Kind, Unit>(kindRefs)
+
+/**
+ * Value in the kind's stored unit. Values are immutable and shared between analyses (see `last`
+ * above): the number in the value's own kind is worked out once.
+ */
+export function inKindUnit(v: Value, kind: Kind): number {
   if (typeof v === 'number') return v
-  let byUnit = numbers.get(v)
-  if (!byUnit) numbers.set(v, (byUnit = new Map()))
-  let n = byUnit.get(unit)
-  if (n === undefined) {
-    n = v.toNumber(unit)
-    byUnit.set(unit, n)
+  if (kind === 'dimensionless') return v.toNumber('')
+  const own = kindOf(v) === kind
+  if (own) {
+    const n = numbers.get(v)
+    if (n !== undefined) return n
   }
+  const n = v.toNumber(kindUnitRefs.get(kind) as unknown as string)
+  if (own) numbers.set(v, n)
   return n
 }
 
-const numbers = new WeakMap<Unit, Map<string, number>>()
+const numbers = new WeakMap<Unit, number>()
 
-/** Value in the kind's stored unit. */
-export function inKindUnit(v: Value, kind: Kind): number {
-  if (kind === 'dimensionless') return typeof v === 'number' ? v : v.toNumber('')
-  return toNumber(v, KIND_UNIT[kind])
+/** The number of `unit` in a value (e.g. toNumber(v, 'A')); plain numbers pass through. */
+export function toNumber(v: Value, unit: string): number {
+  return typeof v === 'number' ? v : v.toNumber(unit)
 }
 
 /** Human text of a value as written by the user's units, e.g. "1.44 A". */
