@@ -196,9 +196,9 @@ function parseLine(raw: string, base: number, line: number, inCell: boolean): Li
   const blank = indent === bodyEnd
   const content = blank ? '' : end === raw.length ? raw : raw.slice(0, end)
   const span: Span = { start: base + Math.min(indent, content.length), end: base + content.length }
-  const common: { line: number; indent: number; span: Span; comment?: Span } = { line, indent, span }
-  if (comment) common.comment = comment
-  if (blank) return { kind: 'blank', ...common }
+  // Nodes are written out field by field (no spreads): each kind then has one fixed layout, built in
+  // one allocation, and an absent comment is an undefined field.
+  if (blank) return { kind: 'blank', line, indent, span, comment }
 
   KEYWORD_RE.lastIndex = indent
   const kwMatch = KEYWORD_RE.exec(content)
@@ -229,22 +229,21 @@ function parseLine(raw: string, base: number, line: number, inCell: boolean): Li
     }
     const isCellChild = CELL_SET.has(kwText)
     const childOfCell = isCellChild && inCell && indent > 0
-    const k = { ...common, keyword }
     switch (kwText) {
       case 'run': {
         s.ws()
         const title = s.quoted() ?? s.restTok('a title, e.g. `run "KOH batch 7"`')
         s.end()
-        return { kind: 'run', ...k, title }
+        return { kind: 'run', line, indent, span, comment, keyword, title }
       }
       case 'note': {
         s.ws()
-        return { kind: 'note', ...k, text: s.restTok('the note text') }
+        return { kind: 'note', line, indent, span, comment, keyword, text: s.restTok('the note text') }
       }
       case 'conditions': {
         s.ws()
         const items = s.splitTop(',', s.rest()).map((t) => s.needExpr(t, 'a temperature or pressure'))
-        return { kind: 'conditions', ...k, items }
+        return { kind: 'conditions', line, indent, span, comment, keyword, items }
       }
       case 'let': {
         s.ws1('a name')
@@ -252,23 +251,23 @@ function parseLine(raw: string, base: number, line: number, inCell: boolean): Li
         s.ws()
         s.lit('=', '`=` after the name')
         s.ws()
-        return { kind: 'let', ...k, name, expr: s.restTok('a value after `=`') }
+        return { kind: 'let', line, indent, span, comment, keyword, name, expr: s.restTok('a value after `=`') }
       }
       case 'cell':
         s.ws()
         s.end('`cell` stands alone on its line; its parts follow, indented')
-        return { kind: 'cell', ...k }
+        return { kind: 'cell',  line, indent, span, comment, keyword }
       case 'vessel': {
         s.ws1('a material')
         const material = s.restTok('a vessel material, e.g. `vessel polypropylene`')
-        return { kind: 'vessel', ...k, material, inCell: childOfCell }
+        return { kind: 'vessel', line, indent, span, comment, keyword, material, inCell: childOfCell }
       }
       case 'compartment': {
         s.ws1('a name')
         const name = s.ident('a compartment name, e.g. `compartment anolyte 500 mL`')
         s.ws1('a volume')
         const volume = s.restTok('the liquid volume, e.g. `500 mL`')
-        return { kind: 'compartment', ...k, name, volume, inCell: childOfCell }
+        return { kind: 'compartment', line, indent, span, comment, keyword, name, volume, inCell: childOfCell }
       }
       case 'separator': {
         s.ws1('a separator kind')
@@ -283,7 +282,7 @@ function parseLine(raw: string, base: number, line: number, inCell: boolean): Li
         const opts = s.optionalClauses(['area', 'drag'])
         return {
           kind: 'separator',
-          ...k,
+          line, indent, span, comment, keyword,
           type,
           between: [a, b],
           ...(opts.area ? { area: opts.area } : {}),
@@ -301,7 +300,7 @@ function parseLine(raw: string, base: number, line: number, inCell: boolean): Li
         const area = s.optionalArea()
         return {
           kind: 'electrode',
-          ...k,
+          line, indent, span, comment, keyword,
           role: kwText as 'anode' | 'cathode',
           material,
           compartment,
@@ -317,7 +316,7 @@ function parseLine(raw: string, base: number, line: number, inCell: boolean): Li
         s.ws()
         const items = s.splitTop(',', s.rest()).map((t) => parseChargeItem(s, t))
         if (items.length === 0) throw new LineError('expected what is charged, e.g. `NaCl 300 g, water 1 L`', s.pos)
-        return { kind: 'charge', ...k, compartment, items }
+        return { kind: 'charge', line, indent, span, comment, keyword, compartment, items }
       }
       case 'step': {
         s.ws1('a step label')
@@ -326,7 +325,7 @@ function parseLine(raw: string, base: number, line: number, inCell: boolean): Li
         s.lit(':', '`:` after the step label')
         s.ws()
         const clauses = parseClauses(s)
-        return { kind: 'step', ...k, label, clauses }
+        return { kind: 'step', line, indent, span, comment, keyword, label, clauses }
       }
       case 'expect':
       case 'observe': {
@@ -337,13 +336,12 @@ function parseLine(raw: string, base: number, line: number, inCell: boolean): Li
         const inMatch = /\s+in\s+([A-Za-z_][\w-]*)\s*$/.exec(restTok.text)
         const qEnd = inMatch ? restTok.text.length - inMatch[0].length : restTok.text.length
         const { main, alternate } = splitAlternate({ text: restTok.text.slice(0, qEnd), span: { start: restTok.span.start, end: restTok.span.start + qEnd } })
-        const yieldNode = { ...k, formula, quantity: main, ...(alternate ? { alternate } : {}) }
+        let compartment: Tok | undefined
         if (inMatch) {
           const nameStart = restTok.span.start + restTok.text.length - inMatch[1].length
-          const compartment = { text: inMatch[1], span: { start: nameStart, end: nameStart + inMatch[1].length } }
-          return kwText === 'expect' ? { kind: 'expect', ...yieldNode, compartment } : { kind: 'observe', ...yieldNode, compartment }
+          compartment = { text: inMatch[1], span: { start: nameStart, end: nameStart + inMatch[1].length } }
         }
-        return kwText === 'expect' ? { kind: 'expect', ...yieldNode } : { kind: 'observe', ...yieldNode }
+        return { kind: kwText === 'expect' ? 'expect' : 'observe', line, indent, span, comment, keyword, formula, quantity: main, alternate, compartment }
       }
       case 'reaction': {
         s.ws1('`anode` or `cathode`')
@@ -361,24 +359,24 @@ function parseLine(raw: string, base: number, line: number, inCell: boolean): Li
         s.lit(':', '`:` after the electrode')
         s.ws()
         const equation = s.restTok('the half-reaction, e.g. `2 Cl- -> Cl2 + 2 e-`')
-        return { kind: 'reaction', ...k, role, equation }
+        return { kind: 'reaction', line, indent, span, comment, keyword, role, equation }
       }
       case 'material': {
         s.ws1('a material name')
         const name = s.word('a material name, e.g. `material house-mmo: Ti mesh with RuO2/IrO2 coating`')
         s.ws()
-        if (s.pos >= content.length) return { kind: 'material', ...k, name }
+        if (s.pos >= content.length) return { kind: 'material', line, indent, span, comment, keyword, name }
         s.lit(':', '`:` before the description')
         s.ws()
         const description = s.restTok('a description after `:`')
-        return { kind: 'material', ...k, name, description }
+        return { kind: 'material', line, indent, span, comment, keyword, name, description }
       }
       case 'include': {
         s.ws()
         const path = s.quoted()
         if (!path || path.text.trim() === '') throw new LineError('expected a quoted path, e.g. `include "house/cell.cellrun"`', s.pos)
         s.end()
-        return { kind: 'include', ...k, path }
+        return { kind: 'include', line, indent, span, comment, keyword, path }
       }
       case 'handling': {
         s.ws1('a kind')
@@ -386,7 +384,7 @@ function parseLine(raw: string, base: number, line: number, inCell: boolean): Li
         s.ws()
         s.lit(':', '`:` after the handling kind')
         s.ws()
-        return { kind: 'handling', ...k, type, text: s.restTok('what is arranged, e.g. `handling vent: H2 piped outdoors`') }
+        return { kind: 'handling', line, indent, span, comment, keyword, type, text: s.restTok('what is arranged, e.g. `handling vent: H2 piped outdoors`') }
       }
     }
     throw new LineError(`unknown statement \`${kwText}\``, indent, indent + kwText.length)
@@ -396,8 +394,11 @@ function parseLine(raw: string, base: number, line: number, inCell: boolean): Li
     const end = Math.max(at, Math.min(e.end ?? content.length, content.length))
     return {
       kind: 'error',
-      ...common,
-      ...(kwMatch ? { keyword } : {}),
+      line,
+      indent,
+      span,
+      comment,
+      keyword: kwMatch ? keyword : undefined,
       message: e.message,
       errorSpan: { start: base + at, end: base + (end === at && at < content.length ? at + 1 : end) },
       ...(e.fix
