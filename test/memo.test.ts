@@ -1,8 +1,9 @@
 // What is kept between analyses (DEVELOPERS.md, invariant 8) must give the same result as starting
 // afresh, whatever was analysed before. Regressions found in review, and the cache key's rules.
+import fc from 'fast-check'
 import { describe, expect, it } from 'vitest'
 import { analyze, clearAnalysisCaches } from '../server/src/core/analyze'
-import { GenerationalCache, ResultCache } from '../server/src/core/memo'
+import { cacheKey, cacheKeyByReplacer, GenerationalCache, ResultCache } from '../server/src/core/memo'
 
 describe('ResultCache keys', () => {
   it('keeps apart what JSON would merge: NaN, Infinity, -Infinity, -0, undefined, bigints', () => {
@@ -15,6 +16,37 @@ describe('ResultCache keys', () => {
     // ...and asking again is a hit for each.
     inputs.forEach((i, k) => expect(cache.get(i)).toBe(results[k]))
     expect(computed).toBe(inputs.length)
+  })
+
+  it('the key written without the replacer (when nothing needs it) is the replacer\'s key', () => {
+    // Values of every kind, the ones the replacer rewrites included, nested in objects and arrays.
+    const leaf = fc.oneof(
+      fc.double(),
+      fc.constantFrom(NaN, Infinity, -Infinity, -0, 0, undefined, null, 1n, true, '', 'x'),
+      fc.integer(),
+      fc.string({ maxLength: 4 }),
+    )
+    const { tree } = fc.letrec((tie) => ({
+      tree: fc.oneof({ depthSize: 'small' }, leaf, fc.array(tie('tree'), { maxLength: 4 }), fc.dictionary(fc.string({ maxLength: 3 }), tie('tree'), { maxKeys: 4 }), tie('tree').map((v) => new Map([['k', v]])), tie('tree').map((v) => new Set([v]))),
+    }))
+    let shortcut = 0
+    fc.assert(
+      fc.property(tree, (v) => {
+        const key = cacheKey(v)
+        expect(key).toBe(cacheKeyByReplacer(v))
+        let plainJson: string | undefined
+        try {
+          plainJson = JSON.stringify(v)
+        } catch {
+          // a bigint: JSON cannot write it
+        }
+        if (key === plainJson) shortcut++
+      }),
+      { numRuns: 3000, seed: 17 },
+    )
+    // Both paths are taken.
+    expect(shortcut).toBeGreaterThan(300)
+    expect(shortcut).toBeLessThan(2900)
   })
 
   it('keeps apart Maps and Sets with different contents (JSON writes every one as {})', () => {

@@ -362,6 +362,21 @@ describe('normalise', () => {
     expect(normalise('50 °F').text).toBe('50 degF')
   })
 
+  it('the shortcut for text with nothing to replace gives what the character-by-character pass gives', () => {
+    // Mostly printable ASCII, with the characters and words normalise() rewrites mixed in.
+    const piece = fc.oneof(
+      fc.string({ unit: fc.integer({ min: 32, max: 126 }).map((c) => String.fromCharCode(c)), maxLength: 6 }),
+      fc.constantFrom('w', 'wt%', 'wt %', '°C', '℃', '·', '−', 'µ', '²', '\t', '\u00a0', '\n', ' h ', ' min ', '1 h 30 min', '2 min 5 s', 'h 3', 'min 2s'),
+    )
+    fc.assert(
+      fc.property(fc.array(piece, { maxLength: 6 }), (parts) => {
+        const t = parts.join('')
+        expect(normalise(t), JSON.stringify(t)).toEqual(sandbox.normaliseByCharacter(t))
+      }),
+      { numRuns: 3000, seed: 11 },
+    )
+  })
+
   it('leaves plain text alone, with an identity map plus the end', () => {
     const n = normalise('2 A')
     expect(n.text).toBe('2 A')

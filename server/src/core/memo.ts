@@ -18,6 +18,49 @@ function keyPart(_k: string, v: unknown): unknown {
   return v
 }
 
+/**
+ * Whether JSON.stringify writes `v` as keyPart would have it written: no value keyPart changes
+ * (non-finite numbers, -0, bigints, undefined, Maps, Sets) and no toJSON anywhere. Deeper than 64
+ * levels counts as not plain (the replacer path then decides).
+ */
+function plain(v: unknown, depth: number): boolean {
+  switch (typeof v) {
+    case 'number':
+      return Number.isFinite(v) && !Object.is(v, -0)
+    case 'string':
+    case 'boolean':
+    case 'function':
+    case 'symbol':
+      return true
+    case 'object': {
+      if (v === null) return true
+      if (depth > 64 || v instanceof Map || v instanceof Set || typeof (v as { toJSON?: unknown }).toJSON === 'function') return false
+      if (Array.isArray(v)) {
+        for (let i = 0; i < v.length; i++) if (!plain(v[i], depth + 1)) return false
+        return true
+      }
+      for (const k in v) {
+        if (!Object.prototype.hasOwnProperty.call(v, k)) continue
+        if (!plain((v as Record<string, unknown>)[k], depth + 1)) return false
+      }
+      return true
+    }
+    default:
+      // undefined and bigint
+      return false
+  }
+}
+
+/** The key of an input: JSON as keyPart writes it (the replacer skipped when it would change nothing). */
+export function cacheKey(input: unknown): string {
+  return plain(input, 0) ? JSON.stringify(input) : JSON.stringify(input, keyPart)
+}
+
+/** The key written with the replacer always: for the test that cacheKey's shortcut gives the same text. */
+export function cacheKeyByReplacer(input: unknown): string {
+  return JSON.stringify(input, keyPart)
+}
+
 export class ResultCache<I, R> {
   private readonly entries = new Map<string, R>()
   hits = 0
@@ -35,7 +78,9 @@ export class ResultCache<I, R> {
   }
 
   get(input: I): R {
-    const key = JSON.stringify(input, keyPart)
+    // The replacer is called for every value, which costs more than the rest of the key: inputs with
+    // nothing it changes (the usual case) are written without it, to the same text.
+    const key = cacheKey(input)
     const hit = this.entries.get(key)
     if (hit !== undefined) {
       // Most recently used last.

@@ -200,6 +200,7 @@ const speciesCache = new Map<string, Species>()
 /** Forget the species and salt tables read so far (for benchmarks that measure a first analysis). */
 export function clearSimulationCaches(): void {
   speciesCache.clear()
+  saltCache.clear()
   saltTable = undefined
 }
 function species(key: string): Species {
@@ -211,6 +212,29 @@ function species(key: string): Species {
   }
   return s
 }
+
+/** The neutral salt (or acid or base) of a cation and an anion, by their ion keys: `K^+`, `CO3^2-` → K2CO3. */
+function saltOf(cation: string, anion: string): { formula: string; nc: number; na: number; mass: number } {
+  let byAnion = saltCache.get(cation)
+  if (!byAnion) saltCache.set(cation, (byAnion = new Map()))
+  let salt = byAnion.get(anion)
+  if (!salt) {
+    const zc = species(cation).charge
+    const za = -species(anion).charge
+    const base = (k: string) => k.replace(/\^.*$/, '')
+    const g = gcd(zc, za)
+    const nc = za / g
+    const na = zc / g
+    const wrap = (s: string, n: number) => (n === 1 ? s : /^[A-Z][a-z]?$/.test(s) ? `${s}${n}` : `(${s})${n}`)
+    const formula = `${wrap(base(cation), nc)}${wrap(base(anion), na)}`
+    const f = parseFormula(formula)
+    salt = { formula, nc, na, mass: Number.isFinite(f.molarMass) ? f.molarMass : nc * species(cation).mass + na * species(anion).mass }
+    byAnion.set(anion, salt)
+  }
+  return salt
+}
+
+const saltCache = new Map<string, Map<string, { formula: string; nc: number; na: number; mass: number }>>()
 
 function ionKey(formula: string, charge: number): string {
   const a = Math.abs(charge)
@@ -265,17 +289,8 @@ class Solution {
     const hPlus = this.get('H^+')
     if (!cat && hPlus > 1e-12) cat = ['H^+', hPlus]
     if (!cat || !an) return undefined
-    const zc = species(cat[0]).charge
-    const za = -species(an[0]).charge
-    const base = (k: string) => k.replace(/\^.*$/, '')
-    const g = gcd(zc, za)
-    const nc = za / g
-    const na = zc / g
-    const wrap = (s: string, n: number) => (n === 1 ? s : /^[A-Z][a-z]?$/.test(s) ? `${s}${n}` : `(${s})${n}`)
-    const formula = `${wrap(base(cat[0]), nc)}${wrap(base(an[0]), na)}`
-    const mol = Math.min(cat[1] / nc, an[1] / na)
-    const f = parseFormula(formula)
-    return { formula, mol, mass: Number.isFinite(f.molarMass) ? f.molarMass : nc * species(cat[0]).mass + na * species(an[0]).mass }
+    const salt = saltOf(cat[0], an[0])
+    return { formula: salt.formula, mol: Math.min(cat[1] / salt.nc, an[1] / salt.na), mass: salt.mass }
   }
   volumeL(): number {
     const d = this.derived()

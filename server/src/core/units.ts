@@ -89,6 +89,15 @@ const cache = new GenerationalCache<string, CompileResult>(CACHE_LIMIT)
 
 /** Replace the typographic forms we accept with mathjs syntax, keeping a map back to the original offsets. */
 export function normalise(text: string): { text: string; map: number[] } {
+  if (isPlain(text)) {
+    const map = new Array<number>(text.length + 1)
+    for (let i = 0; i <= text.length; i++) map[i] = i
+    return { text, map }
+  }
+  return normaliseByCharacter(text)
+}
+
+function normaliseByCharacter(text: string): { text: string; map: number[] } {
   const out: string[] = []
   const map: number[] = []
   const push = (s: string, at: number) => {
@@ -153,6 +162,20 @@ export function normalise(text: string): { text: string; map: number[] } {
   }
   map.push(text.length)
   return { text: out.join(''), map }
+}
+
+const DURATION_PAIR = /(?<![\p{L}\p{N}_])(h|min)(\s+)(?=\d[\d.]*\s*(min|s)(?![\p{L}\p{N}_]))/u
+
+/**
+ * Text normalise() would leave as it is: printable ASCII other than `w` (which may start `wt%`),
+ * and no `1 h 30 min` pair. Most expressions are; they skip the character-by-character copy.
+ */
+function isPlain(text: string): boolean {
+  for (let i = 0; i < text.length; i++) {
+    const c = text.charCodeAt(i)
+    if (c < 32 || c > 126 || c === 119 /* w */) return false
+  }
+  return !DURATION_PAIR.test(text)
 }
 
 const unitNames = new Map<string, boolean>()
@@ -723,7 +746,14 @@ export function kindOf(v: Value): Kind | 'other' {
 /** Values are immutable and shared between analyses (see `last` above): their kind is worked out once. */
 const kinds = new WeakMap<Unit, Kind | 'other'>()
 
+/** Kinds by their dimensions written out (`0,1,0,...`): one look-up for the usual whole powers. */
+const kindByDimensions = new Map<string, Kind>()
+for (const [k, ref] of kindRefs) if (!kindByDimensions.has(ref.dimensions.join(','))) kindByDimensions.set(ref.dimensions.join(','), k)
+
 function kindOfUncached(v: Unit): Kind | 'other' {
+  const exact = kindByDimensions.get(v.dimensions.join(','))
+  if (exact !== undefined) return exact
+  // Powers that are not exact (from sqrt) are compared with mathjs's tolerance.
   for (const [k, ref] of kindRefs) if (v.equalBase(ref)) return k
   if (v.dimensions.every((d) => d === 0)) return 'dimensionless'
   return 'other'
@@ -882,6 +912,10 @@ function stripZeros(s: string): string {
  * stay disabled, and mathjs's own parser, compile and unit tests, the oracles for our faster paths.
  */
 export const sandbox = {
+  /** normalise() without its shortcut for text it leaves as it is, to check the shortcut against. */
+  normaliseByCharacter(text: string): { text: string; map: number[] } {
+    return normaliseByCharacter(text)
+  },
   /** mathjs's parser, to check simpleTree against. */
   mathjsParse(text: string): MathNode {
     return privateParse(text) as MathNode
