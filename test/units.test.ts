@@ -509,6 +509,31 @@ describe('our tree-walking evaluation agrees with mathjs compile()', () => {
   })
 })
 
+describe('numbers in a kind\'s unit are mathjs\'s numbers', () => {
+  // The oracle is mathjs's Unit.toNumber on the same value; the result must be the same bit for bit.
+  const UNITS = ['g', 'kg', 'mg', 'ug', 'mol', 'mmol', 'L', 'mL', 'uL', 'm^3', 'cm^3', 'cm^2', 'dm^2', 'm^2', 'mm^2', 'mm', 'm', 'A', 'mA', 'kA', 'A/cm^2', 'mA/cm^2', 'A/dm^2', 'A/m^2', 'V', 'mV', 's', 'min', 'h', 'day', 'C', 'A h', 'mA h', 'K', 'degC', 'degF', 'Pa', 'kPa', 'bar', 'atm', 'psi', 'mol/L', 'M', 'mM', 'g/L', 'mg/L', 'wtpct', 'ppmw', 'J', 'kJ', 'W h', 'kW h', 'W', 'kW', 'g/mol', 'kg/mol']
+  it('for values of every kind, written in every usual unit and as products', () => {
+    const num = fc.oneof(fc.double({ min: -1e6, max: 1e6, noNaN: true }), fc.integer({ min: -5000, max: 5000 }), fc.constantFrom(0, 1, 0.1, 273.15, 1e-9))
+    const text = fc.oneof(
+      fc.tuple(num, fc.constantFrom(...UNITS)).map(([n, u]) => `${n} ${u}`),
+      fc.tuple(num, fc.constantFrom(...UNITS), num, fc.constantFrom(...UNITS), fc.constantFrom('*', '/')).map(([a, u, b, w, op]) => `(${a} ${u}) ${op} (${b} ${w})`),
+    )
+    let compared = 0
+    fc.assert(
+      fc.property(text, (t) => {
+        const r = evaluateExpression(t, EMPTY)
+        if (!r.ok || typeof r.value === 'number') return
+        const k = kindOf(r.value)
+        if (k === 'other' || k === 'dimensionless') return
+        compared++
+        expect(inKindUnit(r.value, k), t).toBe(r.value.toNumber(sandbox.kindUnit(k) as unknown as string))
+      }),
+      { numRuns: 4000, seed: 23 },
+    )
+    expect(compared).toBeGreaterThan(1500)
+  })
+})
+
 describe('the trees built without the parser are the parser\'s trees', () => {
   // The oracle is mathjs's own parser on the same (normalised) text.
   type Shape = { type: string; fn?: string; op?: string; implicit?: boolean; isPercentage?: boolean; name?: string; value?: unknown; args?: Shape[] }
