@@ -20,9 +20,9 @@ import { parseFormula, prettyFormula, type Formula } from './formula'
 import type { Span } from './positions'
 import type { ChargeItem, LineNode, SyntaxTree, Tok } from './syntax'
 import {
-  deferred,
   evaluateExpression,
   fmt,
+  formatSettings,
   formatValue,
   gasVolumeText,
   inKindUnit,
@@ -33,6 +33,7 @@ import {
   type GasUnit,
   type Kind,
   type Value,
+  withFormatSettings,
 } from './units'
 
 /** One evaluated expression and what was expected of it. */
@@ -434,6 +435,8 @@ class DeferredComputed implements Computed {
   readonly title: string
   #make: (() => string[]) | undefined
   #working: string[] | undefined
+  /** The formatting settings in force when the value was computed (see formatSettings). */
+  readonly #settings: number
 
   constructor(at: { line: number; span: Span }, c: Omit<Computed, 'line' | 'span' | 'anchor' | 'working'>, make: () => string[]) {
     this.line = at.line
@@ -445,11 +448,12 @@ class DeferredComputed implements Computed {
     if (c.unit !== undefined) this.unit = c.unit
     this.title = c.title
     this.#make = make
+    this.#settings = formatSettings()
   }
 
   get working(): string[] {
     if (!this.#working) {
-      this.#working = this.#make!()
+      this.#working = withFormatSettings(this.#settings, this.#make!)
       this.#make = undefined
     }
     return this.#working
@@ -480,7 +484,7 @@ class Evaluator {
    */
   private hintAt(at: { line: number; span: Span }, c: Omit<Computed, 'line' | 'span' | 'anchor' | 'working'> & { working: string[] | (() => string[]) }): void {
     const working = c.working
-    if (typeof working === 'function') this.m.computed.push(new DeferredComputed(at, c, deferred(working)))
+    if (typeof working === 'function') this.m.computed.push(new DeferredComputed(at, c, working))
     else this.m.computed.push({ line: at.line, span: at.span, anchor: at.span.end, ...c, working })
   }
 
@@ -493,7 +497,20 @@ class Evaluator {
     keyword?: Tok,
   ): QuantityFact {
     const r = evaluateExpression(expr.text, this.m.values)
-    const fact: QuantityFact = { line: n.line, expr, role, expected, ...(constraint ? { constraint } : {}), ...(keyword ? { keyword } : {}) }
+    // Every field written at once (one layout for all facts); absent ones are undefined.
+    const fact: QuantityFact = {
+      line: n.line,
+      expr,
+      role,
+      expected,
+      constraint,
+      keyword,
+      failure: undefined,
+      value: undefined,
+      kind: undefined,
+      number: undefined,
+      anyKind: undefined,
+    }
     if (!r.ok) {
       fact.failure = r.failure
     } else {

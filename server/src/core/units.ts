@@ -69,7 +69,8 @@ export interface ExprFailure {
 
 interface Compiled {
   ok: true
-  code: { evaluate(scope: Map<string, unknown>): unknown }
+  /** The checked tree, evaluated by evalNode. */
+  tree: MathNode
   /** Symbols: `let` names come from the scope; a unit name is a unit unless a `let` value shadows it. */
   names: { name: string; start: number; end: number; isUnit: boolean }[]
   /** Unit symbols used, which must be placed in the scope as units (so `min` is minutes, not a function). */
@@ -309,10 +310,12 @@ function compile(text: string): CompileResult {
         if (isUnitName(name)) {
           unitSymbols.add(name)
           // A name may be both a unit and a `let` value; record it so the scope can win.
-          names.push({ name, ...locate(name), isUnit: true })
+          const at = locate(name)
+          names.push({ name, start: at.start, end: at.end, isUnit: true })
           return
         }
-        names.push({ name, ...locate(name), isUnit: false })
+        const at = locate(name)
+        names.push({ name, start: at.start, end: at.end, isUnit: false })
         return
       }
       case 'ParenthesisNode':
@@ -362,12 +365,15 @@ function compile(text: string): CompileResult {
   // cost more than the rest of a first analysis.) A unit raised to a huge power (`1 m^1e9`, `(1 A)^x`
   // with a large `x`) has a finite value but no meaning: refused here, whatever the exponent came
   // from (the caller reports what this throws).
-  return { ok: true, code: codeFor(root), names, unitSymbols: [...unitSymbols] }
+  return { ok: true, tree: root, names, unitSymbols: unitSymbols.size === 0 ? NO_UNITS : [...unitSymbols] }
 }
 
-/** The evaluator of a checked tree, made outside compile() so that it keeps only the tree alive (a closure made in compile() would keep its whole scope: the normalised text and its offset map). */
-function codeFor(checked: MathNode): Compiled['code'] {
-  return { evaluate: (scope) => refuseHugePowers(evalNode(checked, scope)) }
+const NO_UNITS: string[] = []
+const NO_INPUTS: (Value | undefined)[] = []
+
+/** The value of a compiled expression with `scope` (named values and units), huge powers refused. */
+function run(c: Compiled, scope: Map<string, unknown>): unknown {
+  return refuseHugePowers(evalNode(c.tree, scope))
 }
 
 /**
@@ -606,7 +612,7 @@ export function evaluateExpression(text: string, scope: ReadonlyMap<string, Valu
     for (let i = 0; i < c.names.length && same; i++) same = scope.get(c.names[i].name) === last.inputs[i]
     if (same) return last.result
   }
-  const inputs = c.names.map((n) => scope.get(n.name))
+  const inputs = c.names.length === 0 ? NO_INPUTS : c.names.map((n) => scope.get(n.name))
   const result = evaluateCompiled(text, c, scope)
   c.last = { inputs, result }
   return result
@@ -626,7 +632,7 @@ function evaluateCompiled(text: string, c: Compiled, scope: ReadonlyMap<string, 
     }
   }
   try {
-    const v = c.code.evaluate(s)
+    const v = run(c, s)
     if (typeof v === 'number') {
       if (!Number.isFinite(v)) return { ok: false, failure: { reason: 'math', message: 'the value is not a finite number', start: 0, end: text.length } }
       return { ok: true, value: v }
@@ -888,13 +894,18 @@ export function gasVolumeText(litres: number, sig = labelFigures): string {
 }
 
 /**
- * `f` to be run later (text that is only read when someone looks: a hover's working), in the
- * formatting settings in force now (significant figures, gas unit).
+ * The formatting settings in force (significant figures, gas unit), as one number, for text that is
+ * written later (a hover's working, only read when someone looks) in the settings of now.
  */
-export function deferred<T>(f: () => T): () => T {
-  const sig = labelFigures
-  const unit = gasUnit
-  return () => withSignificantFigures(sig, () => withGasUnit(unit, f))
+export function formatSettings(): number {
+  return labelFigures * 4 + GAS_UNITS.indexOf(gasUnit)
+}
+
+const GAS_UNITS: readonly GasUnit[] = ['L', 'mL', 'm^3']
+
+/** Run `f` in formatting settings saved by formatSettings. */
+export function withFormatSettings<T>(settings: number, f: () => T): T {
+  return withSignificantFigures(Math.floor(settings / 4), () => withGasUnit(GAS_UNITS[settings % 4], f))
 }
 
 /** Run `f` with another number of significant figures for labels (fmt's default); restores it after. */
@@ -956,7 +967,7 @@ export const sandbox = {
   cellrunEvaluate(text: string, scope: Map<string, unknown>): unknown {
     const c = compiled(text)
     if (!c.ok) throw new Error(c.failure.message)
-    return c.code.evaluate(scope)
+    return run(c, scope)
   },
   /** The unit value evaluateExpression puts in the scope for a unit name. */
   unitValue(name: string): Unit {
