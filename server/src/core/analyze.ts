@@ -1,7 +1,7 @@
 // The entry point of the analysis core: text in, plain data out (syntax tree, model, computed
 // values, diagnostics, outline, hovers). No editor or LSP types are used anywhere in the core.
 import { RULES } from '../rules'
-import { NOTED_ANY } from '../rules/noted'
+import { mayBeNoted, NOTED_ANY } from '../rules/noted'
 import { gatherIncludes } from './include'
 import type { Diagnostic } from './diagnostics'
 import { clearFormulaCache, prettyFormula } from './formula'
@@ -94,7 +94,7 @@ function analyzeWith(text: string, options: ModelOptions, previous?: Pick<Analys
 function applyNotesAndSeverities(diagnostics: Diagnostic[], tree: SyntaxTree, text: string, index: LineIndex, options: ModelOptions): Diagnostic[] {
   const notes = new Map<number, Map<string, string>>()
   for (const n of tree.lines) {
-    if (!n.comment) continue
+    if (!n.comment || !mayBeNoted(text, n.comment.start)) continue
     const m = NOTED_ANY.exec(text.slice(n.comment.start, n.comment.end).trim())
     if (m && m[2]?.trim()) {
       if (!notes.has(n.line)) notes.set(n.line, new Map())

@@ -649,7 +649,11 @@ const parsedCache = new GenerationalCache<string, Internal>(4096)
 /** Forget parsed formulas (for benchmarks that measure a first analysis). */
 export function clearFormulaCache(): void {
   parsedCache.clear()
+  prettyCache.clear()
 }
+
+/** Pretty forms by formula text (hint labels ask for the same few formulas on every step). */
+const prettyCache = new Map<string, string>()
 
 function safeParse(text: string): Internal {
   const t = typeof text === 'string' ? text : ''
@@ -704,6 +708,17 @@ const SUPERSCRIPT = '⁰¹²³⁴⁵⁶⁷⁸⁹'
  * converted as far as it was understood and otherwise left as it is.
  */
 export function prettyFormula(text: string): string {
+  let pretty = prettyCache.get(text)
+  if (pretty === undefined) {
+    pretty = prettyUncached(text)
+    // Formulas over the length cap are not parsed (and not kept); the cache stays small.
+    if (prettyCache.size >= 4096) prettyCache.clear()
+    if (typeof text === 'string' && text.length <= MAX_FORMULA_LENGTH) prettyCache.set(text, pretty)
+  }
+  return pretty
+}
+
+function prettyUncached(text: string): string {
   const { formula, roles, chargeStart } = safeParse(text)
   const t = formula.text
   let out = ''

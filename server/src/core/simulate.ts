@@ -201,6 +201,7 @@ const speciesCache = new Map<string, Species>()
 export function clearSimulationCaches(): void {
   speciesCache.clear()
   saltCache.clear()
+  productIonsCache.clear()
   saltTable = undefined
 }
 function species(key: string): Species {
@@ -216,7 +217,11 @@ function species(key: string): Species {
 /** The neutral salt (or acid or base) of a cation and an anion, by their ion keys: `K^+`, `CO3^2-` → K2CO3. */
 function saltOf(cation: string, anion: string): { formula: string; nc: number; na: number; mass: number } {
   let byAnion = saltCache.get(cation)
-  if (!byAnion) saltCache.set(cation, (byAnion = new Map()))
+  if (!byAnion) {
+    // Ion keys come from what documents charge: bounded like the other caches.
+    if (saltCache.size >= 4096) saltCache.clear()
+    saltCache.set(cation, (byAnion = new Map()))
+  }
   let salt = byAnion.get(anion)
   if (!salt) {
     const zc = species(cation).charge
@@ -235,6 +240,25 @@ function saltOf(cation: string, anion: string): { formula: string; nc: number; n
 }
 
 const saltCache = new Map<string, Map<string, { formula: string; nc: number; na: number; mass: number }>>()
+
+type ProductIons = { cation: string; anion: string; cationCount: number; anionCount: number; molarMass: number }
+
+/** The ion keys a salt, acid or base formula is made of (`K2CO3` → `K^+` ×2, `CO3^2-`), or null. */
+function productIons(formula: string): ProductIons | null {
+  let p = productIonsCache.get(formula)
+  if (p === undefined) {
+    const f = parseFormula(formula)
+    const ions = ionsOf(f)
+    p = ions
+      ? { cation: ionKey(ions.cation, ions.cationCharge), anion: ionKey(ions.anion, ions.anionCharge), cationCount: ions.cationCount, anionCount: ions.anionCount, molarMass: f.molarMass }
+      : null
+    if (productIonsCache.size >= 4096) productIonsCache.clear()
+    productIonsCache.set(formula, p)
+  }
+  return p
+}
+
+const productIonsCache = new Map<string, ProductIons | null>()
 
 function ionKey(formula: string, charge: number): string {
   const a = Math.abs(charge)
@@ -348,13 +372,10 @@ class Solution {
   }
   /** Amount of a given salt/base formula present as its ions. */
   productOf(formula: string): { formula: string; mol: number; mass: number } | undefined {
-    const f = parseFormula(formula)
-    const ions = ionsOf(f)
+    const ions = productIons(formula)
     if (!ions) return undefined
-    const cat = ionKey(ions.cation, ions.cationCharge)
-    const an = ionKey(ions.anion, ions.anionCharge)
-    const mol = Math.min(this.get(cat) / ions.cationCount, this.get(an) / ions.anionCount)
-    return { formula, mol, mass: f.molarMass }
+    const mol = Math.min(this.get(ions.cation) / ions.cationCount, this.get(ions.anion) / ions.anionCount)
+    return { formula, mol, mass: ions.molarMass }
   }
   clone(): Solution {
     const s = new Solution(this.name)

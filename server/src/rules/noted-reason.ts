@@ -1,7 +1,7 @@
 // noted-reason: a `# noted CODE: reason` comment must name a rule Cellrun has and give the reason;
 // without them it acknowledges nothing.
 import type { Diagnostic } from '../core/diagnostics'
-import { NOTED_ANY } from './noted'
+import { mayBeNoted, NOTED_ANY } from './noted'
 import type { Rule } from './rule'
 
 export const notedReason: Rule = {
@@ -13,7 +13,7 @@ export const notedReason: Rule = {
     const out: Diagnostic[] = []
     const text = model.tree.text
     for (const n of model.tree.lines) {
-      if (!n.comment) continue
+      if (!n.comment || !mayBeNoted(text, n.comment.start)) continue
       const c = text.slice(n.comment.start, n.comment.end)
       const m = NOTED_ANY.exec(c)
       if (!m) continue
