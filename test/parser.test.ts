@@ -1,7 +1,8 @@
 // The line parser: every statement's parts with exact spans, and broken input becoming error
 // nodes without stopping the parse.
+import fc from 'fast-check'
 import { describe, expect, it } from 'vitest'
-import { parse } from '../server/src/core/parser'
+import { commentStart, parse } from '../server/src/core/parser'
 import type { LineNode } from '../server/src/core/syntax'
 import { covered, marked } from './support/markers'
 
@@ -173,5 +174,27 @@ describe('broken input', () => {
     const t = parse('step 1: curent 2 A for 1 h')
     const e = t.lines[0]
     expect(e.kind === 'error' && e.fix?.newText).toBe('current')
+  })
+})
+
+describe('where a comment starts', () => {
+  // The rule as the README states it: a comment starts at the first `#` outside a quoted title. Read here
+  // one character at a time, the plain way, as the oracle for the parser's faster search.
+  const byCharacter = (s: string): number => {
+    let quoted = false
+    for (let i = 0; i < s.length; i++) {
+      if (s[i] === '"') quoted = !quoted
+      else if (s[i] === '#' && !quoted) return i
+    }
+    return -1
+  }
+  it('is the first `#` outside double quotes, for any text', () => {
+    const text = fc.array(fc.constantFrom('#', '"', 'a', ' ', 'note', '1 g'), { maxLength: 12 }).map((p) => p.join(''))
+    fc.assert(
+      fc.property(text, (s) => {
+        expect(commentStart(s), JSON.stringify(s)).toBe(byCharacter(s))
+      }),
+      { numRuns: 3000, seed: 29 },
+    )
   })
 })

@@ -25,10 +25,8 @@ import {
   formatSettings,
   formatValue,
   gasVolumeText,
-  inKindUnit,
   isConstantName,
   isUnitSymbol,
-  kindOf,
   type ExprFailure,
   type GasUnit,
   type Kind,
@@ -515,15 +513,8 @@ class Evaluator {
       fact.failure = r.failure
     } else {
       fact.value = r.value
-      const k = kindOf(r.value)
-      fact.kind = k
-      if (k !== 'other' && expected.includes(k)) {
-        try {
-          fact.number = inKindUnit(r.value, k)
-        } catch {
-          // a unit mathjs cannot convert (should not happen for a matched kind)
-        }
-      }
+      fact.kind = r.kind
+      if (r.kind !== 'other' && expected.includes(r.kind)) fact.number = r.number
     }
     this.m.quantities.push(fact)
     return fact

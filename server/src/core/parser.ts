@@ -132,11 +132,28 @@ const STATEMENT_SET: ReadonlySet<string> = new Set(STATEMENT_KEYWORDS)
 const CELL_SET: ReadonlySet<string> = new Set(CELL_KEYWORDS)
 // Sticky patterns (flag y) match at lastIndex: no copy of the rest of the line per token, so a
 // megabyte line is read in time proportional to its length.
-const KEYWORD_RE = /[A-Za-z][A-Za-z-]*/y
 const IDENT_RE = /[A-Za-z_][A-Za-z0-9_-]*/y
 const WORD_RE = /[^\s,:]+/y
 const LETTERS_RE = /[A-Za-z-]+/y
 const SPACE_OR_STOP_RE = /[\s,:]/g
+
+/** Where a keyword (`[A-Za-z][A-Za-z-]*`) that starts at `from` ends; `from` when none starts there. */
+function keywordEnd(s: string, from: number): number {
+  let i = from
+  const first = s.charCodeAt(i)
+  if (!((first >= 65 && first <= 90) || (first >= 97 && first <= 122))) return from
+  for (i++; i < s.length; i++) {
+    const c = s.charCodeAt(i)
+    if (!((c >= 65 && c <= 90) || (c >= 97 && c <= 122) || c === 45)) break
+  }
+  return i
+}
+
+/** The statement keyword written at [from, to), as the one shared string (no copy per line), or undefined. */
+function knownKeyword(s: string, from: number, to: number): string | undefined {
+  for (const k of STATEMENT_KEYWORDS) if (k.length === to - from && s.startsWith(k, from)) return k
+  return undefined
+}
 
 /** White space at `i`, as `\s` in a pattern reads it (ASCII first, the rest by the pattern). */
 function isSpace(s: string, i: number): boolean {
@@ -163,6 +180,11 @@ function wordsAt(words: readonly string[]): RegExp {
 
 /** Where the comment starts (`#` outside double quotes), or -1. */
 export function commentStart(s: string): number {
+  // Most lines have no `#`, or none after a quote: found by two native searches.
+  const hash = s.indexOf('#')
+  if (hash < 0) return -1
+  const quote = s.indexOf('"')
+  if (quote < 0 || quote > hash) return hash
   let quoted = false
   for (let i = 0; i < s.length; i++) {
     const c = s[i]
@@ -200,9 +222,9 @@ function parseLine(raw: string, base: number, line: number, inCell: boolean): Li
   // one allocation, and an absent comment is an undefined field.
   if (blank) return { kind: 'blank', line, indent, span, comment }
 
-  KEYWORD_RE.lastIndex = indent
-  const kwMatch = KEYWORD_RE.exec(content)
-  const kwText = kwMatch ? kwMatch[0] : ''
+  const kwEnd = keywordEnd(content, indent)
+  const kwMatch = kwEnd > indent
+  const kwText = kwMatch ? knownKeyword(content, indent, kwEnd) ?? content.slice(indent, kwEnd) : ''
   const keyword: Tok = { text: kwText, span: { start: base + indent, end: base + indent + kwText.length } }
   const s = new Cursor(content, base, indent + kwText.length)
   try {

@@ -587,7 +587,26 @@ function compiled(text: string): CompileResult {
   return cache.get(text, compile)
 }
 
-export type EvalResult = { ok: true; value: Value } | { ok: false; failure: ExprFailure }
+/**
+ * A value, with its kind and its number in the kind's stored unit (undefined for the kind 'other'):
+ * worked out once with the value, which later analyses share while the line and its names are
+ * unchanged.
+ */
+export type EvalResult = { ok: true; value: Value; kind: Kind | 'other'; number: number | undefined } | { ok: false; failure: ExprFailure }
+
+function valueResult(value: Value): EvalResult {
+  // Not through kindOf and inKindUnit: their tables (weak maps) are for values from elsewhere.
+  const kind = typeof value === 'number' ? 'dimensionless' : kindOfUncached(value)
+  let number: number | undefined
+  if (kind !== 'other') {
+    try {
+      number = typeof value === 'number' ? value : kind === 'dimensionless' ? value.toNumber('') : numberIn(value, kindUnitRefs.get(kind)!)
+    } catch {
+      // a unit mathjs cannot convert (should not happen for a matched kind)
+    }
+  }
+  return { ok: true, value, kind, number }
+}
 
 const unitValues = new Map<string, Unit>()
 function unitSymbolValue(name: string): Unit {
@@ -635,15 +654,15 @@ function evaluateCompiled(text: string, c: Compiled, scope: ReadonlyMap<string, 
     const v = run(c, s)
     if (typeof v === 'number') {
       if (!Number.isFinite(v)) return { ok: false, failure: { reason: 'math', message: 'the value is not a finite number', start: 0, end: text.length } }
-      return { ok: true, value: v }
+      return valueResult(v)
     }
     if (isUnit(v)) {
       const num = v.value
-      if (num === null || num === undefined) return { ok: true, value: math.unit(1, v.formatUnits()) as Unit }
+      if (num === null || num === undefined) return valueResult(math.unit(1, v.formatUnits()) as Unit)
       if (typeof num !== 'number' || !Number.isFinite(num)) {
         return { ok: false, failure: { reason: 'math', message: 'the value is not a finite number', start: 0, end: text.length } }
       }
-      return { ok: true, value: v }
+      return valueResult(v)
     }
     return { ok: false, failure: { reason: 'refused', message: 'the expression does not give a number or a quantity', start: 0, end: text.length } }
   } catch (e) {

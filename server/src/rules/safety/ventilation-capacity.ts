@@ -4,7 +4,7 @@
 import type { Diagnostic } from '../../core/diagnostics'
 import { fix } from '../../core/diagnostics'
 import type { Span } from '../../core/positions'
-import { evaluateExpression, fmt, inKindUnit, kindOf } from '../../core/units'
+import { evaluateExpression, fmt } from '../../core/units'
 import type { Rule } from '../rule'
 import { appendLine, handlingOf, litresPerMol, peakGasStep, produced } from './facts'
 
@@ -32,8 +32,8 @@ export function flowIn(text: string): { lph: number; start: number; end: number;
   // A flow times an hour is a volume: the kind the units module knows, in litres.
   const litresPerHour = (expr: string): number | undefined => {
     const r = evaluateExpression(`(${expr}) * 1 h`, new Map())
-    if (!r.ok || kindOf(r.value) !== 'volume') return undefined
-    return inKindUnit(r.value, 'volume')
+    if (!r.ok || r.kind !== 'volume') return undefined
+    return r.number
   }
   const lph = litresPerHour(`${m[1]} ${mathUnit}`)
   const perUnitLph = litresPerHour(`1 ${mathUnit}`)
