@@ -312,20 +312,31 @@ function acidFormula(anion: string, charge: number): string {
 
 /** Amounts for one run of the bookkeeping (stated efficiencies, or all at 100 %). */
 class Ledger {
-  readonly formed = new Map<string, Product>()
+  /** One entry per substance and compartment, in the order first formed. A ledger holds a few: found by a scan. */
+  readonly products: Product[] = []
   constructor(private readonly key: 'mol' | 'mol100') {}
 
   add(p: Omit<Product, 'mol' | 'mol100'>, mol: number): void {
     if (!(mol > 0)) return
-    const k = p.formula + '@' + p.compartment
-    let cur = this.formed.get(k)
+    let cur: Product | undefined
+    for (const x of this.products) {
+      if (x.formula === p.formula && x.compartment === p.compartment) {
+        cur = x
+        break
+      }
+    }
     if (!cur) {
       // Written out (not spread): one object shape for every product keeps this hot path fast.
       cur = { formula: p.formula, electrons: p.electrons, compartment: p.compartment, origin: p.origin, gas: p.gas, equation: p.equation, reason: p.reason, mol: 0, mol100: 0 }
-      this.formed.set(k, cur)
+      this.products.push(cur)
     }
     if (this.key === 'mol') cur.mol += mol
     else cur.mol100 += mol
+  }
+
+  /** The products by `FORMULA@COMPARTMENT`, in the order first formed. */
+  formed(): Map<string, Product> {
+    return new Map(this.products.map((p) => [p.formula + '@' + p.compartment, p]))
   }
 }
 
@@ -408,8 +419,8 @@ export function runEngine(input: EngineInput): EngineResult {
   const at100 = bookkeep(input, result, true)
   // Merge the two ledgers: every product with both amounts.
   const merged = new Map<string, Product>()
-  for (const [k, p] of withEff.total.formed) merged.set(k, { ...p })
-  for (const [k, p] of at100.total.formed) {
+  for (const [k, p] of withEff.total.formed()) merged.set(k, { ...p })
+  for (const [k, p] of at100.total.formed()) {
     const m = merged.get(k)
     if (m) m.mol100 = p.mol100
     else merged.set(k, { ...p, mol: 0 })
@@ -436,10 +447,22 @@ function bookkeep(input: EngineInput, r: EngineResult, full: boolean): Book {
   const a = anode.compartment
   const c = cathode.compartment
   // The cation that crosses a cation-exchange separator: the most plentiful non-proton cation of the anode side.
-  const crossing = (side: Ions) =>
-    [...side.cations].filter(([el, v]) => el !== 'H' && v.mol > 1e-15 && !(el in DEPOSITABLE)).sort((x, y) => y[1].mol - x[1].mol)[0]
-  const crossingAnion = (side: Ions) =>
-    [...side.anions].filter(([n, v]) => n !== 'OH' && v.mol > 1e-15).sort((x, y) => y[1].mol - x[1].mol)[0]
+  // The most plentiful of the ions that qualify; on a tie the first in the map's order (as a stable
+  // sort by amount, largest first, would give). A scan, not a sort: this runs for every step.
+  const mostPlentiful = <V extends { mol: number }>(ions: Map<string, V>, skip: (key: string) => boolean): [string, V] | undefined => {
+    let bestKey: string | undefined
+    let best: V | undefined
+    for (const [k, v] of ions) {
+      if (skip(k) || !(v.mol > 1e-15)) continue
+      if (best === undefined || v.mol > best.mol) {
+        bestKey = k
+        best = v
+      }
+    }
+    return best === undefined ? undefined : [bestKey!, best]
+  }
+  const crossing = (side: Ions) => mostPlentiful(side.cations, (el) => el === 'H' || el in DEPOSITABLE)
+  const crossingAnion = (side: Ions) => mostPlentiful(side.anions, (n) => n === 'OH')
   for (const s of input.steps) {
     const ledger = new Ledger(key)
     const notes: string[] = []
@@ -569,7 +592,7 @@ function bookkeep(input: EngineInput, r: EngineResult, full: boolean): Book {
         }
       }
     }
-    steps.push({ line: s.line, products: [...ledger.formed.values()], notes })
+    steps.push({ line: s.line, products: ledger.products, notes })
 
     /** Mol of electrons a stated reaction takes, up to `wanted`, as far as the ions it uses last; draws them down. */
     function statedShare(r: ElectrodeReaction, side: Ions, wanted: number, where: string): number {
