@@ -3,7 +3,9 @@
 import fc from 'fast-check'
 import { describe, expect, it } from 'vitest'
 import { analyze, clearAnalysisCaches } from '../server/src/core/analyze'
-import { cacheKey, cacheKeyByReplacer, GenerationalCache, ResultCache } from '../server/src/core/memo'
+import { join } from 'node:path'
+import { GenerationalCache, ResultCache, sameInput } from '../server/src/core/memo'
+import { loadExamples } from './fuzz/generators'
 
 describe('ResultCache keys', () => {
   it('keeps apart what JSON would merge: NaN, Infinity, -Infinity, -0, undefined, bigints', () => {
@@ -18,35 +20,63 @@ describe('ResultCache keys', () => {
     expect(computed).toBe(inputs.length)
   })
 
-  it('the key written without the replacer (when nothing needs it) is the replacer\'s key', () => {
-    // Values of every kind, the ones the replacer rewrites included, nested in objects and arrays.
-    const leaf = fc.oneof(
-      fc.double(),
-      fc.constantFrom(NaN, Infinity, -Infinity, -0, 0, undefined, null, 1n, true, '', 'x'),
-      fc.integer(),
-      fc.string({ maxLength: 4 }),
-    )
-    const { tree } = fc.letrec((tie) => ({
-      tree: fc.oneof({ depthSize: 'small' }, leaf, fc.array(tie('tree'), { maxLength: 4 }), fc.dictionary(fc.string({ maxLength: 3 }), tie('tree'), { maxKeys: 4 }), tie('tree').map((v) => new Map([['k', v]])), tie('tree').map((v) => new Set([v]))),
-    }))
-    let shortcut = 0
+  // The definition the comparison must never be looser than: the inputs written as JSON, with what
+  // JSON merges (NaN, Infinity and null; -0 and 0; undefined and absent; every Map and Set as {})
+  // kept apart. (Cellrun keyed its caches by this text before; kept here as the oracle.)
+  const asJson = (v: unknown) =>
+    JSON.stringify(v, (_k, x) => {
+      if (typeof x === 'number') return Number.isFinite(x) && !Object.is(x, -0) ? x : `#${Object.is(x, -0) ? '-0' : String(x)}`
+      if (typeof x === 'bigint') return `#${x}n`
+      if (x === undefined) return '#undefined'
+      if (x instanceof Map) return ['#Map', ...x]
+      if (x instanceof Set) return ['#Set', ...x]
+      return x
+    })
+  const leaf = fc.oneof(fc.double(), fc.constantFrom(NaN, Infinity, -Infinity, -0, 0, undefined, null, 1n, true, '', 'x'), fc.integer({ min: -3, max: 3 }), fc.string({ maxLength: 2 }))
+  const { tree } = fc.letrec((tie) => ({
+    tree: fc.oneof(
+      { depthSize: 'small' },
+      leaf,
+      fc.array(tie('tree'), { maxLength: 3 }),
+      fc.dictionary(fc.constantFrom('a', 'b', 'c'), tie('tree'), { maxKeys: 3 }),
+      tie('tree').map((v) => new Map([['k', v]])),
+      tie('tree').map((v) => new Set([v])),
+    ),
+  }))
+  /** A copy with new objects, arrays, Maps and Sets throughout. */
+  const copy = (v: unknown): unknown =>
+    Array.isArray(v)
+      ? v.map(copy)
+      : v instanceof Map
+        ? new Map([...v].map(([k, x]) => [copy(k), copy(x)]))
+        : v instanceof Set
+          ? new Set([...v].map(copy))
+          : typeof v === 'object' && v !== null
+            ? Object.setPrototypeOf(Object.fromEntries(Object.entries(v).map(([k, x]) => [k, copy(x)])), Object.getPrototypeOf(v))
+            : v
+
+  it('inputs the cache takes as the same have the same JSON (with what JSON merges kept apart)', () => {
+    let same = 0
     fc.assert(
-      fc.property(tree, (v) => {
-        const key = cacheKey(v)
-        expect(key).toBe(cacheKeyByReplacer(v))
-        let plainJson: string | undefined
-        try {
-          plainJson = JSON.stringify(v)
-        } catch {
-          // a bigint: JSON cannot write it
-        }
-        if (key === plainJson) shortcut++
+      fc.property(tree, tree, fc.boolean(), (a, b0, twin) => {
+        // Half the pairs are a value and its copy, so that equal pairs are common.
+        const b = twin ? copy(a) : b0
+        if (!sameInput(a, b)) return
+        same++
+        expect(asJson(b)).toBe(asJson(a))
       }),
       { numRuns: 3000, seed: 17 },
     )
-    // Both paths are taken.
-    expect(shortcut).toBeGreaterThan(300)
-    expect(shortcut).toBeLessThan(2900)
+    expect(same).toBeGreaterThan(1000)
+  })
+
+  it('a copy of an input is the same input (a hit), whatever it holds', () => {
+    fc.assert(
+      fc.property(tree, (v) => {
+        expect(sameInput(v, copy(v))).toBe(true)
+      }),
+      { numRuns: 2000, seed: 19 },
+    )
   })
 
   it('keeps apart Maps and Sets with different contents (JSON writes every one as {})', () => {
@@ -124,5 +154,44 @@ describe('an analysis does not depend on what was analysed before', () => {
     analyze(A)
     analyze(B)
     expect(Object.keys(globalThis).filter((k) => !before.has(k))).toEqual([])
+  })
+})
+
+describe('kept inputs and results are not changed', () => {
+  it('the engine and the simulation run on frozen inputs (they never write to what they are given)', () => {
+    // The cache keeps each input to compare the next ones with: a computation that wrote to its
+    // input would change what is kept. Frozen inputs make any such write throw (ES modules are strict).
+    const deepFreeze = (v: unknown, seen = new Set<unknown>()): void => {
+      if (typeof v !== 'object' || v === null || seen.has(v)) return
+      seen.add(v)
+      Object.freeze(v)
+      if (v instanceof Map) for (const [k, x] of v) (deepFreeze(k, seen), deepFreeze(x, seen))
+      else if (v instanceof Set) for (const x of v) deepFreeze(x, seen)
+      else for (const x of Object.values(v)) deepFreeze(x, seen)
+    }
+    const texts = loadExamples(join(__dirname, '..', 'examples')).map((e) => e.text)
+    expect(texts.length).toBeGreaterThanOrEqual(3)
+    const plainRuns = texts.map((t) => {
+      clearAnalysisCaches()
+      return JSON.stringify(analyze(t).computed)
+    })
+    const get = ResultCache.prototype.get
+    let frozen = 0
+    ResultCache.prototype.get = function (this: ResultCache<unknown, unknown>, input: unknown) {
+      deepFreeze(input)
+      frozen++
+      return get.call(this, input)
+    }
+    try {
+      texts.forEach((t, i) => {
+        clearAnalysisCaches()
+        expect(JSON.stringify(analyze(t).computed)).toBe(plainRuns[i])
+      })
+    } finally {
+      ResultCache.prototype.get = get
+      clearAnalysisCaches()
+    }
+    // Every example runs the engine, most the simulation too.
+    expect(frozen).toBeGreaterThanOrEqual(2 * texts.length - 1)
   })
 })

@@ -1,67 +1,51 @@
 // Results reused between analyses. On each keystroke the whole document is analysed again, but
 // most edits (a note, a comment, an observation, a typo being typed) leave the chemistry's input
 // as it was: the engine's bookkeeping and the simulation are then taken from here instead of being
-// run again. Keys are the full input written as JSON, so a hit is exactly the same computation.
-// The cached results are shared: nothing that reads them may change them.
+// run again. An input is compared with the kept ones value by value (sameInput), so a hit is
+// exactly the same computation; nothing is written out to compare (writing a thousand steps' numbers
+// as JSON cost more than a millisecond on every analysis).
+// The cached results and the kept inputs are shared: nothing may change them (a test runs the
+// engine and the simulation on frozen inputs).
 
 /**
- * JSON with what JSON would merge kept apart: non-finite numbers (all `null` in JSON), -0 (`0`),
- * bigints (not written at all), undefined values, and Maps and Sets (all `{}` in JSON; written here
- * as their entries).
+ * Whether two inputs are the same data: primitives by Object.is (NaN equals NaN, -0 differs from
+ * 0), arrays and plain objects by their own enumerable keys in order and their values, Maps and
+ * Sets by their entries in order. Any other object (a class instance, an object with toJSON) only
+ * equals itself. Deeper than 64 levels counts as different (the result is then computed again).
+ * Stricter than comparing the inputs as JSON, never looser: a test checks that equal inputs have
+ * equal JSON (with what JSON merges kept apart).
  */
-function keyPart(_k: string, v: unknown): unknown {
-  if (typeof v === 'number') return Number.isFinite(v) && !Object.is(v, -0) ? v : `#${Object.is(v, -0) ? '-0' : String(v)}`
-  if (typeof v === 'bigint') return `#${v}n`
-  if (v === undefined) return '#undefined'
-  if (v instanceof Map) return ['#Map', ...v]
-  if (v instanceof Set) return ['#Set', ...v]
-  return v
-}
-
-/**
- * Whether JSON.stringify writes `v` as keyPart would have it written: no value keyPart changes
- * (non-finite numbers, -0, bigints, undefined, Maps, Sets) and no toJSON anywhere. Deeper than 64
- * levels counts as not plain (the replacer path then decides).
- */
-function plain(v: unknown, depth: number): boolean {
-  switch (typeof v) {
-    case 'number':
-      return Number.isFinite(v) && !Object.is(v, -0)
-    case 'string':
-    case 'boolean':
-    case 'function':
-    case 'symbol':
-      return true
-    case 'object': {
-      if (v === null) return true
-      if (depth > 64 || v instanceof Map || v instanceof Set || typeof (v as { toJSON?: unknown }).toJSON === 'function') return false
-      if (Array.isArray(v)) {
-        for (let i = 0; i < v.length; i++) if (!plain(v[i], depth + 1)) return false
-        return true
-      }
-      // Inherited enumerable properties (which JSON does not write) are checked too: at worst an
-      // input goes the slow way for nothing.
-      for (const k in v) if (!plain((v as Record<string, unknown>)[k], depth + 1)) return false
-      return true
-    }
-    default:
-      // undefined and bigint
-      return false
+export function sameInput(a: unknown, b: unknown, depth = 0): boolean {
+  if (Object.is(a, b)) return true
+  if (typeof a !== 'object' || typeof b !== 'object' || a === null || b === null || depth > 64) return false
+  if (Array.isArray(a)) {
+    if (!Array.isArray(b) || a.length !== b.length) return false
+    for (let i = 0; i < a.length; i++) if (!sameInput(a[i], b[i], depth + 1)) return false
+    return true
   }
-}
-
-/** The key of an input: JSON as keyPart writes it (the replacer skipped when it would change nothing). */
-export function cacheKey(input: unknown): string {
-  return plain(input, 0) ? JSON.stringify(input) : JSON.stringify(input, keyPart)
-}
-
-/** The key written with the replacer always: for the test that cacheKey's shortcut gives the same text. */
-export function cacheKeyByReplacer(input: unknown): string {
-  return JSON.stringify(input, keyPart)
+  if (a instanceof Map || a instanceof Set) {
+    if (Object.getPrototypeOf(a) !== Object.getPrototypeOf(b) || a.size !== (b as Map<unknown, unknown> | Set<unknown>).size) return false
+    const x = [...a.entries()]
+    const y = [...(b as Map<unknown, unknown> | Set<unknown>).entries()]
+    for (let i = 0; i < x.length; i++) if (!sameInput(x[i], y[i], depth + 1)) return false
+    return true
+  }
+  const proto = Object.getPrototypeOf(a)
+  if ((proto !== Object.prototype && proto !== null) || Object.getPrototypeOf(b) !== proto) return false
+  if (typeof (a as { toJSON?: unknown }).toJSON === 'function') return false
+  const ka = Object.keys(a)
+  const kb = Object.keys(b)
+  if (ka.length !== kb.length) return false
+  for (let i = 0; i < ka.length; i++) {
+    if (ka[i] !== kb[i]) return false
+    if (!sameInput((a as Record<string, unknown>)[ka[i]], (b as Record<string, unknown>)[kb[i]], depth + 1)) return false
+  }
+  return true
 }
 
 export class ResultCache<I, R> {
-  private readonly entries = new Map<string, R>()
+  /** Least recently used first. */
+  private readonly entries: { input: I; result: R }[] = []
   hits = 0
   misses = 0
 
@@ -73,26 +57,24 @@ export class ResultCache<I, R> {
   ) {}
 
   clear(): void {
-    this.entries.clear()
+    this.entries.length = 0
   }
 
   get(input: I): R {
-    // The replacer is called for every value, which costs more than the rest of the key: inputs with
-    // nothing it changes (the usual case) are written without it, to the same text.
-    const key = cacheKey(input)
-    const hit = this.entries.get(key)
-    if (hit !== undefined) {
+    for (let i = this.entries.length - 1; i >= 0; i--) {
+      const e = this.entries[i]
+      if (!sameInput(e.input, input)) continue
       // Most recently used last.
-      this.entries.delete(key)
-      this.entries.set(key, hit)
+      this.entries.splice(i, 1)
+      this.entries.push(e)
       this.hits++
-      return hit
+      return e.result
     }
     this.misses++
-    const r = this.compute(input)
-    if (this.entries.size >= this.limit) this.entries.delete(this.entries.keys().next().value as string)
-    this.entries.set(key, r)
-    return r
+    const result = this.compute(input)
+    if (this.entries.length >= this.limit) this.entries.shift()
+    this.entries.push({ input, result })
+    return result
   }
 }
 
