@@ -418,42 +418,60 @@ const ANY_KIND: readonly Kind[] = [
 
 const WATER_NAMES = new Set(['water', 'H2O'])
 
+/** A hint as the evaluator makes it: label, title and working may be given as functions, run when first read. */
+interface HintSpec {
+  key: string
+  label: string | (() => string)
+  value?: number
+  unit?: string
+  title: string | (() => string)
+  working: string[] | (() => string[])
+}
+
 /**
- * A computed value whose working is written when first read (`working` is a getter). In JSON it is
- * the same as a plain Computed, with the keys in the same order.
+ * A computed value whose label, title and working may be written when first read (they are getters):
+ * an editor shows the hints of the lines in view and the hover under the pointer, not all of a long
+ * protocol's on every keystroke. They are written in the formatting settings of the analysis that
+ * made the value. In JSON it is the same as a plain Computed, with the keys in the same order.
  */
 class DeferredComputed implements Computed {
   readonly line: number
   readonly span: Span
   readonly anchor: number
   readonly key: string
-  readonly label: string
   readonly value?: number
   readonly unit?: string
-  readonly title: string
-  #make: (() => string[]) | undefined
-  #working: string[] | undefined
+  #label: string | (() => string)
+  #title: string | (() => string)
+  #working: string[] | (() => string[])
   /** The formatting settings in force when the value was computed (see formatSettings). */
   readonly #settings: number
 
-  constructor(at: { line: number; span: Span }, c: Omit<Computed, 'line' | 'span' | 'anchor' | 'working'>, make: () => string[]) {
+  constructor(at: { line: number; span: Span }, c: HintSpec) {
     this.line = at.line
     this.span = at.span
     this.anchor = at.span.end
     this.key = c.key
-    this.label = c.label
     if (c.value !== undefined) this.value = c.value
     if (c.unit !== undefined) this.unit = c.unit
-    this.title = c.title
-    this.#make = make
+    this.#label = c.label
+    this.#title = c.title
+    this.#working = c.working
     this.#settings = formatSettings()
   }
 
+  get label(): string {
+    if (typeof this.#label === 'function') this.#label = withFormatSettings(this.#settings, this.#label)
+    return this.#label
+  }
+
+  get title(): string {
+    if (typeof this.#title === 'function') this.#title = withFormatSettings(this.#settings, this.#title)
+    return this.#title
+  }
+
   get working(): string[] {
-    if (!this.#working) {
-      this.#working = withFormatSettings(this.#settings, this.#make!)
-      this.#make = undefined
-    }
+    if (typeof this.#working === 'function') this.#working = withFormatSettings(this.#settings, this.#working)
     return this.#working
   }
 
@@ -480,10 +498,10 @@ class Evaluator {
    * The working may be given as a function: it is then written only when it is first read (a hover,
    * a report), not on every keystroke for every step of a long protocol.
    */
-  private hintAt(at: { line: number; span: Span }, c: Omit<Computed, 'line' | 'span' | 'anchor' | 'working'> & { working: string[] | (() => string[]) }): void {
-    const working = c.working
-    if (typeof working === 'function') this.m.computed.push(new DeferredComputed(at, c, working))
-    else this.m.computed.push({ line: at.line, span: at.span, anchor: at.span.end, ...c, working })
+  private hintAt(at: { line: number; span: Span }, c: HintSpec): void {
+    const { label, title, working } = c
+    if (typeof label === 'function' || typeof title === 'function' || typeof working === 'function') this.m.computed.push(new DeferredComputed(at, c))
+    else this.m.computed.push({ line: at.line, span: at.span, anchor: at.span.end, ...c, label, title, working })
   }
 
   quantity(
@@ -913,19 +931,22 @@ class Evaluator {
       t.electronMol += ne
       t.effectiveElectronMol += ne * eff
       const Ah = Q / 3600
-      const parts = [`${fmt(Ah)} A·h`, `${fmt(ne)} mol e⁻`]
-      if (s.usedArea) parts.unshift(`${fmt(s.currentA!)} A`)
-      // Current density over each part with an area; the hint shows the reference one (cathode).
-      const ref = s.usedArea ?? this.referenceArea()
-      if (ref && s.densityAm2 === undefined) parts.push(`${fmt((s.currentA! / ref.cm2) * 1000)} mA/cm²`)
       const E = s.voltageV !== undefined ? s.voltageV * Q : undefined
-      if (E !== undefined) {
-        energy += E
-        parts.push(`${fmt(E / 3600)} W·h`)
-      } else energyKnown = false
+      if (E !== undefined) energy += E
+      else energyKnown = false
       const sum = s === lastCharged && charged.length > 1 ? { chargeC: t.chargeC, electronMol: t.electronMol } : undefined
-      if (sum) parts.push(`Σ ${fmt(sum.chargeC / 3600)} A·h`)
-      // The working is written when it is read (see hintAt); everything it uses is fixed by now.
+      // The label and the working are written when they are read (see hintAt); everything they use
+      // is fixed by now.
+      const label = () => {
+        const parts = [`${fmt(Ah)} A·h`, `${fmt(ne)} mol e⁻`]
+        if (s.usedArea) parts.unshift(`${fmt(s.currentA!)} A`)
+        // Current density over each part with an area; the hint shows the reference one (cathode).
+        const ref = s.usedArea ?? this.referenceArea()
+        if (ref && s.densityAm2 === undefined) parts.push(`${fmt((s.currentA! / ref.cm2) * 1000)} mA/cm²`)
+        if (E !== undefined) parts.push(`${fmt(E / 3600)} W·h`)
+        if (sum) parts.push(`Σ ${fmt(sum.chargeC / 3600)} A·h`)
+        return parts.join(' · ')
+      }
       const working = () => {
         const w = [
           s.densityAm2 !== undefined && s.usedArea
@@ -949,10 +970,10 @@ class Evaluator {
       }
       this.hintAt(s, {
         key: 'step.charge',
-        label: parts.join(' · '),
+        label,
         value: Q,
         unit: 'C',
-        title: `Charge passed in step ${s.label}`,
+        title: () => `Charge passed in step ${s.label}`,
         working,
       })
     }
@@ -1051,15 +1072,18 @@ class Evaluator {
       if (st.electronMol <= 0) continue
       const node = m.tree.lines[st.line]
       const main = sim.mainProduct
-      const snap = main ? st.compartments.find((c) => c.name === main.compartment) : undefined
-      const parts: string[] = []
-      if (snap?.main && main && main.formula !== 'H2' && main.formula !== 'Cl2') parts.push(`${fmt(snap.main.wtPercent)} wt% ${prettyFormula(snap.main.formula)} in ${snap.name}`)
-      if (st.product) parts.push(`CE ${fmt(st.product.efficiency * 100)} %`)
-      for (const c of st.compartments) parts.push(`pH ${c.ph.toFixed(1)} ${c.name}`)
-      if (Math.abs(st.temperatureK - m.temperatureK) > 0.5) parts.push(`${fmt(st.temperatureK - ZERO_CELSIUS)} °C`)
+      const label = () => {
+        const snap = main ? st.compartments.find((c) => c.name === main.compartment) : undefined
+        const parts: string[] = []
+        if (snap?.main && main && main.formula !== 'H2' && main.formula !== 'Cl2') parts.push(`${fmt(snap.main.wtPercent)} wt% ${prettyFormula(snap.main.formula)} in ${snap.name}`)
+        if (st.product) parts.push(`CE ${fmt(st.product.efficiency * 100)} %`)
+        for (const c of st.compartments) parts.push(`pH ${c.ph.toFixed(1)} ${c.name}`)
+        if (Math.abs(st.temperatureK - m.temperatureK) > 0.5) parts.push(`${fmt(st.temperatureK - ZERO_CELSIUS)} °C`)
+        return `sim: ${parts.join(' · ')}`
+      }
       this.hintAt(node, {
         key: 'step.sim',
-        label: `sim: ${parts.join(' · ')}`,
+        label,
         title: 'Simulated state at the end of this step',
         working: () => [
           `after ${clock(st.endTime)} of the run${st.product ? `; ${prettyFormula(st.product.formula)} formed in the step: ${fmt(st.product.mol, 4)} mol, current efficiency ${fmt(st.product.efficiency * 100, 3)} %` : ''}`,
@@ -1144,13 +1168,13 @@ class Evaluator {
       }
       if (y.mol === undefined || q.kind === 'volume') continue
       const simCe = electrons > 0 ? ((formed * main.electrons) / electrons) * 100 : 0
-      const label = y.kind === 'expect' ? `sim: ${fmt((formed + y.initialMol) * f.molarMass)} g at CE ${fmt(simCe)} %` : `sim CE ${fmt(simCe)} %`
+      const label = () => (y.kind === 'expect' ? `sim: ${fmt((formed + y.initialMol) * f.molarMass)} g at CE ${fmt(simCe)} %` : `sim CE ${fmt(simCe)} %`)
       this.hintAt(node, {
         key: y.kind === 'expect' ? 'expect.sim' : 'observe.sim',
         label,
         value: y.kind === 'expect' ? (formed + y.initialMol) * f.molarMass : electrons > 0 ? (formed * main.electrons) / electrons : 0,
         unit: y.kind === 'expect' ? 'g' : '1',
-        title: `${prettyFormula(main.formula)} in the simulation`,
+        title: () => `${prettyFormula(main.formula)} in the simulation`,
         working: () => [
           `simulated ${prettyFormula(main.formula)} formed: ${fmt(formed, 4)} mol = ${fmt(formed * f.molarMass, 4)} g` + (y.initialMol > 0 ? `, plus ${fmt(y.initialMol * f.molarMass, 4)} g charged` : ''),
           `simulated current efficiency: ${fmt(formed, 4)} mol × ${main.electrons} ÷ ${fmt(electrons, 4)} mol e⁻ = ${fmt(electrons > 0 ? ((formed * main.electrons) / electrons) * 100 : 0, 3)} %`,
@@ -1253,12 +1277,15 @@ class Evaluator {
           energy.push(`heat = (U − E_tn)·Q = (${fmt(step.voltageV, 4)} − ${fmt(v.thermoneutral, 4)}) V × ${fmt(step.chargeC / 3600, 4)} A·h = ${fmt(heat / 3600, 4)} W·h${heat < 0 ? ' (the cell takes heat in)' : ''}`)
         }
       }
-      // Solid and dissolved products first (usually the point of the run), then the gases.
-      const shown = [...sp.products].sort((x, y) => Number(x.gas) - Number(y.gas))
-      const label =
-        '→ ' +
-        [...shown.map((p) => `${amountText(p, p.mol, Vm)} ${prettyFormula(p.formula)}`), ...energyParts].join(' · ') +
-        (sp.notes.length ? ' · ⚠ ' + sp.notes.length : '')
+      const label = () => {
+        // Solid and dissolved products first (usually the point of the run), then the gases.
+        const shown = [...sp.products].sort((x, y) => Number(x.gas) - Number(y.gas))
+        return (
+          '→ ' +
+          [...shown.map((p) => `${amountText(p, p.mol, Vm)} ${prettyFormula(p.formula)}`), ...energyParts].join(' · ') +
+          (sp.notes.length ? ' · ⚠ ' + sp.notes.length : '')
+        )
+      }
       const node = m.tree.lines[sp.line]
       this.hintAt(node, {
         key: 'step.products',
@@ -1386,27 +1413,27 @@ class Evaluator {
     }
     const formedMol = y.formedMol
     if (n.kind === 'expect') {
-      const label =
-        `max ${shown(y.initialMol + y.maxMolEff)}` +
-        (y.initialMol > 0 ? ` incl. ${shown(y.initialMol)} charged` : '') +
-        (y.feedLimited ? ' (feed-limited)' : '') +
-        (formedMol !== undefined && formedMol >= 0 && y.maxMolEff > 0 ? ` · plan ${fmt((100 * formedMol) / y.maxMolEff)} % of max` : '')
+      const label = () =>
+        `max ${shown(initialMol + maxMolEff)}` +
+        (initialMol > 0 ? ` incl. ${shown(initialMol)} charged` : '') +
+        (feedLimited ? ' (feed-limited)' : '') +
+        (formedMol !== undefined && formedMol >= 0 && maxMolEff > 0 ? ` · plan ${fmt((100 * formedMol) / maxMolEff)} % of max` : '')
       this.hintAt(n, {
         key: 'expect.max',
         label,
         value: (y.initialMol + y.maxMolEff) * M,
         unit: 'g',
-        title: `Theoretical ${pf} (Faraday's law)`,
+        title: () => `Theoretical ${pf} (Faraday's law)`,
         working,
       })
     } else if (formedMol !== undefined && y.maxMol100 > 0) {
       const ce = formedMol / y.maxMol100
       this.hintAt(n, {
         key: 'observe.efficiency',
-        label: `current efficiency ${fmt(ce * 100)} %`,
+        label: () => `current efficiency ${fmt(ce * 100)} %`,
         value: ce,
         unit: '1',
-        title: `Current efficiency for ${pf}`,
+        title: () => `Current efficiency for ${pf}`,
         working: () => [
           ...working(),
           `current efficiency = formed ÷ (n(e⁻)/${fmt(reaction.electrons, 4)}) = ` +
