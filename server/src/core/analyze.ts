@@ -93,7 +93,8 @@ function analyzeWith(text: string, options: ModelOptions, previous?: Pick<Analys
  */
 function applyNotesAndSeverities(diagnostics: Diagnostic[], tree: SyntaxTree, text: string, index: LineIndex, options: ModelOptions): Diagnostic[] {
   const notes = new Map<number, Map<string, string>>()
-  for (const n of tree.lines) {
+  for (let li = 0; li < tree.lines.length; li++) {
+    const n = tree.lines[li]
     if (!n.comment || !mayBeNoted(text, n.comment.start)) continue
     const m = NOTED_ANY.exec(text.slice(n.comment.start, n.comment.end).trim())
     if (m && m[2]?.trim()) {
@@ -170,7 +171,8 @@ export function outline(a: Analysis): OutlineItem[] {
     selection,
     children: [],
   })
-  for (const n of a.tree.lines) {
+  for (let li = 0; li < a.tree.lines.length; li++) {
+    const n = a.tree.lines[li]
     switch (n.kind) {
       case 'run':
         items.push(item(n, 'run', n.title.text, 'run'))

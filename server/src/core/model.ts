@@ -319,7 +319,8 @@ export function buildModel(tree: SyntaxTree, options: ModelOptions = {}): Model 
   // definitions (appended after the document) come first: they are defined before it.
   const from = options.definitionsFrom
   const inOrder = from !== undefined ? [...tree.lines.slice(from), ...tree.lines.slice(0, from)] : tree.lines
-  for (const n of inOrder) {
+  for (let li = 0; li < inOrder.length; li++) {
+    const n = inOrder[li]
     if (n.kind !== 'let') continue
     // A unit's name, or a constant's (`pi` always means π in an expression): the value would be ignored.
     const shadowsUnit = isUnitSymbol(n.name.text) || isConstantName(n.name.text)
@@ -329,7 +330,8 @@ export function buildModel(tree: SyntaxTree, options: ModelOptions = {}): Model 
     if (q.value !== undefined && !m.values.has(n.name.text) && !shadowsUnit) m.values.set(n.name.text, q.value)
   }
   // Pass 2: conditions and the cell.
-  for (const n of tree.lines) {
+  for (let li = 0; li < tree.lines.length; li++) {
+    const n = tree.lines[li]
     if (n.kind === 'conditions') ev.conditions(n)
     else if (n.kind === 'compartment') {
       m.declarations.push({ line: n.line, tok: n.name, of: 'compartment' })
@@ -350,7 +352,8 @@ export function buildModel(tree: SyntaxTree, options: ModelOptions = {}): Model 
       m.vessel = { line: n.line, material: n.material }
     }
   }
-  for (const n of tree.lines) {
+  for (let li = 0; li < tree.lines.length; li++) {
+    const n = tree.lines[li]
     if (n.kind === 'separator') {
       const [a, b] = n.between
       ev.ref(n.line, a)
@@ -377,7 +380,8 @@ export function buildModel(tree: SyntaxTree, options: ModelOptions = {}): Model 
     }
   }
   // Pass 3: charges, steps, yields, handling.
-  for (const n of tree.lines) {
+  for (let li = 0; li < tree.lines.length; li++) {
+    const n = tree.lines[li]
     if (n.kind === 'charge') ev.charge(n)
     else if (n.kind === 'step') ev.step(n)
     else if (n.kind === 'handling') m.handling.push({ line: n.line, type: n.type, text: n.text })
@@ -386,7 +390,8 @@ export function buildModel(tree: SyntaxTree, options: ModelOptions = {}): Model 
   ev.compartmentSummaries()
   ev.stepTotals()
   ev.chemistry()
-  for (const n of tree.lines) {
+  for (let li = 0; li < tree.lines.length; li++) {
+    const n = tree.lines[li]
     if (n.kind === 'expect' || n.kind === 'observe') ev.yieldLine(n)
   }
   ev.simulation(options.efficiencyFloor ?? 0.8)

@@ -17,7 +17,8 @@ export const includeFile: Rule = {
       fixes: [],
     }))
     if (!model.includesFollowed) {
-      for (const n of model.tree.lines) {
+      for (let li = 0; li < model.tree.lines.length; li++) {
+        const n = model.tree.lines[li]
         if (n.kind !== 'include') continue
         out.push({ code: 'include-file', severity: 'information', message: 'includes are not followed here (no workspace to read from)', span: n.path.span, fixes: [] })
       }

@@ -12,7 +12,8 @@ export const notedReason: Rule = {
   check({ model }) {
     const out: Diagnostic[] = []
     const text = model.tree.text
-    for (const n of model.tree.lines) {
+    for (let li = 0; li < model.tree.lines.length; li++) {
+      const n = model.tree.lines[li]
       if (!n.comment || !mayBeNoted(text, n.comment.start)) continue
       const c = text.slice(n.comment.start, n.comment.end)
       const m = NOTED_ANY.exec(c)

@@ -13,7 +13,8 @@ export const outsideCell: Rule = {
     // The fix can only indent a line that directly continues the cell block (after the `cell` line
     // or its indented parts, blank lines aside); elsewhere indenting would not put it in the cell.
     let continuesCell = false
-    for (const n of model.tree.lines) {
+    for (let li = 0; li < model.tree.lines.length; li++) {
+      const n = model.tree.lines[li]
       if (n.kind === 'blank') continue
       const part = 'inCell' in n
       if (part && !n.inCell) {

@@ -8,7 +8,8 @@ export const syntax: Rule = {
   summary: 'A line that does not follow the protocol format.',
   check({ model }) {
     const out: Diagnostic[] = []
-    for (const n of model.tree.lines) {
+    for (let li = 0; li < model.tree.lines.length; li++) {
+      const n = model.tree.lines[li]
       if (n.kind !== 'error') continue
       out.push({ code: 'syntax', severity: 'error', message: n.message, span: n.errorSpan, fixes: n.fix ? [fix(n.fix.title, n.fix.span, n.fix.newText)] : [] })
     }

@@ -52,7 +52,8 @@ interface Item {
 
 function itemsWith(model: Model, anions: string[]): Item[] {
   const out: Item[] = []
-  for (const n of model.tree.lines) {
+  for (let li = 0; li < model.tree.lines.length; li++) {
+    const n = model.tree.lines[li]
     if (n.kind !== 'charge') continue
     for (const it of n.items) {
       const i = ions(it.formula.text)

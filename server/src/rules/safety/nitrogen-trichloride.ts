@@ -34,7 +34,8 @@ export const nitrogenTrichloride: Rule = {
     const site = chlorineSite(model)
     if (!site) return []
     const out: Diagnostic[] = []
-    for (const n of model.tree.lines) {
+    for (let li = 0; li < model.tree.lines.length; li++) {
+      const n = model.tree.lines[li]
       if (n.kind !== 'charge' || !site.solution.has(n.compartment.text)) continue
       for (const item of n.items) {
         const ff = model.formulas.find((x) => x.line === n.line && x.tok.span.start === item.formula.span.start)

@@ -61,7 +61,8 @@ function chlorideMolar(model: Model, name: string): number {
 
 function itemsIn(model: Model, compartments: Set<string>): Item[] {
   const out: Item[] = []
-  for (const n of model.tree.lines) {
+  for (let li = 0; li < model.tree.lines.length; li++) {
+    const n = model.tree.lines[li]
     if (n.kind !== 'charge' || !compartments.has(n.compartment.text)) continue
     for (const it of n.items) {
       const kind = classify(it.formula.text)
