@@ -2,7 +2,7 @@
 // nodes without stopping the parse.
 import fc from 'fast-check'
 import { describe, expect, it } from 'vitest'
-import { commentStart, parse } from '../server/src/core/parser'
+import { commentStart, isTrimSpace, parse } from '../server/src/core/parser'
 import type { LineNode } from '../server/src/core/syntax'
 import { covered, marked } from './support/markers'
 
@@ -196,5 +196,18 @@ describe('where a comment starts', () => {
       }),
       { numRuns: 3000, seed: 29 },
     )
+  })
+})
+
+describe('white space trimmed around statement parts', () => {
+  it('is what String.prototype.trim removes, for every UTF-16 code unit', () => {
+    // The oracle is the JavaScript engine's own trim().
+    const differ: number[] = []
+    for (let c = 0; c < 0x10000; c++) {
+      const ch = String.fromCharCode(c)
+      const trimmed = ch !== 'x' && `${ch}x${ch}`.trim() === 'x'
+      if (trimmed !== isTrimSpace(c)) differ.push(c)
+    }
+    expect(differ).toEqual([])
   })
 })

@@ -864,6 +864,7 @@ class Evaluator {
   }
 
   step(n: Extract<LineNode, { kind: 'step' }>): void {
+    // Every field written at once (one layout; the clauses fill it in).
     const s: StepFact = {
       line: n.line,
       label: n.label.text,
@@ -872,6 +873,15 @@ class Evaluator {
       hasCurrentClause: false,
       hasVoltageClause: false,
       hasDurationClause: false,
+      currentText: undefined,
+      currentA: undefined,
+      densityAm2: undefined,
+      usedArea: undefined,
+      densityWithoutArea: undefined,
+      voltageV: undefined,
+      seconds: undefined,
+      chargeC: undefined,
+      heatJ: undefined,
     }
     const stepName = `step ${n.label.text}`
     for (const c of n.clauses) {
@@ -1336,7 +1346,24 @@ class Evaluator {
       this.m.yields.push({ line: n.line, kind: n.kind, formula: ff, quantity: q, initialMol: 0, ...(n.compartment ? { compartment: n.compartment } : {}) })
       return
     }
-    const y: YieldFact = { line: n.line, kind: n.kind, formula: ff, quantity: q, initialMol: 0, ...(n.compartment ? { compartment: n.compartment } : {}) }
+    // Every field written at once (one layout; the later assignments fill it in).
+    const y: YieldFact = {
+      line: n.line,
+      kind: n.kind,
+      formula: ff,
+      quantity: q,
+      initialMol: 0,
+      compartment: n.compartment,
+      litresPerMol: undefined,
+      mol: undefined,
+      reaction: undefined,
+      noReaction: undefined,
+      wrongCompartment: undefined,
+      maxMolEff: undefined,
+      maxMol100: undefined,
+      feedLimited: undefined,
+      formedMol: undefined,
+    }
     this.m.yields.push(y)
     const M = f.molarMass
     const Vm = this.litresPerMol()

@@ -554,11 +554,21 @@ function splitWords(t: Tok, words: readonly string[]): Tok[] {
 }
 
 function trimTok(t: Tok, from: number, to: number): Tok {
-  const raw = t.text.slice(from, to)
-  const lead = raw.length - raw.trimStart().length
-  const text = raw.trim()
-  const start = t.span.start + from + lead
-  return { text, span: { start, end: start + text.length } }
+  // White space as trim() reads it, found by index: one copy of the trimmed text, not three.
+  const s = t.text
+  let a = from
+  while (a < to && isTrimSpace(s.charCodeAt(a))) a++
+  let b = to
+  while (b > a && isTrimSpace(s.charCodeAt(b - 1))) b--
+  const start = t.span.start + a
+  return { text: s.slice(a, b), span: { start, end: start + (b - a) } }
+}
+
+/** What String.prototype.trim removes: white space and line terminators (ECMAScript WhiteSpace, LineTerminator). */
+export function isTrimSpace(c: number): boolean {
+  if (c <= 32) return c === 32 || (c >= 9 && c <= 13)
+  if (c < 0xa0) return false
+  return c === 0xa0 || c === 0x1680 || (c >= 0x2000 && c <= 0x200a) || c === 0x2028 || c === 0x2029 || c === 0x202f || c === 0x205f || c === 0x3000 || c === 0xfeff
 }
 
 /** A reading position in one line's content. Offsets in errors are relative to the line start. */
