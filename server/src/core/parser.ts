@@ -506,7 +506,9 @@ function parseClauses(s: Cursor): Clause[] {
     for (const part of splitWords(piece, STEP_CLAUSES)) {
       const m = /^([A-Za-z][A-Za-z-]*)(\s*)(.*)$/s.exec(part.text)
       const word = m ? m[1] : part.text.split(/\s/)[0]
-      if (!m || !(STEP_CLAUSES as readonly string[]).includes(m[1])) {
+      // The clause word as the one shared string (the model compares it on every step).
+      const known = m ? STEP_CLAUSES.find((c) => c === m[1]) : undefined
+      if (!m || !known) {
         const guess = closest(word, STEP_CLAUSES)
         const at = part.span.start - s.base
         throw new LineError(
@@ -516,7 +518,7 @@ function parseClauses(s: Cursor): Clause[] {
           guess ? { start: at, end: at + word.length, newText: guess, title: `Change to \`${guess}\`` } : undefined,
         )
       }
-      const kwTok: Tok = { text: m[1], span: { start: part.span.start, end: part.span.start + m[1].length } }
+      const kwTok: Tok = { text: known, span: { start: part.span.start, end: part.span.start + known.length } }
       const exprStart = part.span.start + m[1].length + m[2].length
       if (m[3].trim() === '') {
         throw new LineError(`\`${m[1]}\` needs a value`, kwTok.span.start - s.base, kwTok.span.end - s.base)

@@ -771,12 +771,30 @@ export function kindOf(v: Value): Kind | 'other' {
 /** Values are immutable and shared between analyses (see `last` above): their kind is worked out once. */
 const kinds = new WeakMap<Unit, Kind | 'other'>()
 
-/** Kinds by their dimensions written out (`0,1,0,...`): one look-up for the usual whole powers. */
-const kindByDimensions = new Map<string, Kind>()
-for (const [k, ref] of kindRefs) if (!kindByDimensions.has(ref.dimensions.join(','))) kindByDimensions.set(ref.dimensions.join(','), k)
+/**
+ * Dimensions as one number, for whole powers from -15 to 15 (base 32, at most 2^50 for ten base
+ * dimensions: exact); undefined for anything else (a fractional power from sqrt, a huge one).
+ */
+function dimensionsKey(dims: readonly number[]): number | undefined {
+  let key = 0
+  for (let i = dims.length - 1; i >= 0; i--) {
+    const d = dims[i]
+    if (!Number.isInteger(d) || d < -15 || d > 15) return undefined
+    key = key * 32 + (d + 16)
+  }
+  return key
+}
+
+/** Kinds by their dimensions (dimensionsKey): one look-up for the usual whole powers. */
+const kindByDimensions = new Map<number, Kind>()
+for (const [k, ref] of kindRefs) {
+  const key = dimensionsKey(ref.dimensions)
+  if (key !== undefined && !kindByDimensions.has(key)) kindByDimensions.set(key, k)
+}
 
 function kindOfUncached(v: Unit): Kind | 'other' {
-  const exact = kindByDimensions.get(v.dimensions.join(','))
+  const key = dimensionsKey(v.dimensions)
+  const exact = key === undefined ? undefined : kindByDimensions.get(key)
   if (exact !== undefined) return exact
   // Powers that are not exact (from sqrt) are compared with mathjs's tolerance.
   for (const [k, ref] of kindRefs) if (v.equalBase(ref)) return k
