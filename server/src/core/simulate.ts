@@ -714,16 +714,30 @@ function sumWhere(s: Solution, pred: (k: string) => boolean): number {
  * `trace` mol), which may run out within one step without harm.
  */
 function reactingScale(input: SimInput, a: Solution, c: Solution, depIon: string | undefined, trace: number): number {
-  const candidates: number[] = []
-  const consider = (v: number) => {
-    if (v > trace) candidates.push(v)
+  // The smallest of the candidates above the trace and the water's share (Math.min taken pairwise,
+  // which is the same as over all at once): no array or closure per time step.
+  let scale = Math.max(c.get(WATER), a.get(WATER)) * 0.05
+  let v: number
+  if (depIon && (v = c.get(depIon) * input.cathode.metal!.charge) > trace) scale = Math.min(scale, v)
+  if (input.anode.kind === 'chlorine' && (v = a.get('Cl^-')) > trace) scale = Math.min(scale, v)
+  if (a !== c && (v = cationCharge(a)) > trace) scale = Math.min(scale, v)
+  if (input.anode.kind === 'oxygen') {
+    for (let i = 0; i < OXYGEN_SIDE_ANIONS.length; i++) if ((v = a.get(OXYGEN_SIDE_ANIONS[i])) > trace) scale = Math.min(scale, v)
   }
-  if (depIon) consider(c.get(depIon) * input.cathode.metal!.charge)
-  if (input.anode.kind === 'chlorine') consider(a.get('Cl^-'))
-  if (a !== c) consider(sumWhere(a, (k) => species(k).charge > 0))
-  if (input.anode.kind === 'oxygen') for (const k of ['CO3^2-', 'HCO3^-', 'OH^-']) consider(a.get(k))
-  candidates.push(Math.max(c.get(WATER), a.get(WATER)) * 0.05)
-  return Math.min(...candidates)
+  return scale
+}
+
+const OXYGEN_SIDE_ANIONS = ['CO3^2-', 'HCO3^-', 'OH^-']
+
+/** The charge of the cations in a solution, mol (sumWhere over the cations, without a closure). */
+function cationCharge(s: Solution): number {
+  let t = 0
+  for (const [k, v] of s.amt) {
+    if (k === WATER) continue
+    const z = species(k).charge
+    if (z > 0) t += v * Math.abs(z)
+  }
+  return t
 }
 
 function electrodeReactions(input: SimInput, st: State, a: Solution, c: Solution, dne: number, eta: number): void {
