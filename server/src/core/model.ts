@@ -423,18 +423,18 @@ const ANY_KIND: readonly Kind[] = [
 
 const WATER_NAMES = new Set(['water', 'H2O'])
 
-/** A hint as the evaluator makes it: label, title and working may be given as functions, run when first read. */
+/** A hint as the evaluator makes it: label and working may be given as functions, run when first read. */
 interface HintSpec {
   key: string
   label: string | (() => string)
   value?: number
   unit?: string
-  title: string | (() => string)
+  title: string
   working: string[] | (() => string[])
 }
 
 /**
- * A computed value whose label, title and working may be written when first read (they are getters):
+ * A computed value whose label and working may be written when first read (they are getters):
  * an editor shows the hints of the lines in view and the hover under the pointer, not all of a long
  * protocol's on every keystroke. They are written in the formatting settings of the analysis that
  * made the value. In JSON it is the same as a plain Computed, with the keys in the same order.
@@ -446,8 +446,8 @@ class DeferredComputed implements Computed {
   readonly key: string
   readonly value?: number
   readonly unit?: string
+  readonly title: string
   #label: string | (() => string)
-  #title: string | (() => string)
   #working: string[] | (() => string[])
   /** The formatting settings in force when the value was computed (see formatSettings). */
   readonly #settings: number
@@ -459,8 +459,8 @@ class DeferredComputed implements Computed {
     this.key = c.key
     if (c.value !== undefined) this.value = c.value
     if (c.unit !== undefined) this.unit = c.unit
+    this.title = c.title
     this.#label = c.label
-    this.#title = c.title
     this.#working = c.working
     this.#settings = formatSettings()
   }
@@ -468,11 +468,6 @@ class DeferredComputed implements Computed {
   get label(): string {
     if (typeof this.#label === 'function') this.#label = withFormatSettings(this.#settings, this.#label)
     return this.#label
-  }
-
-  get title(): string {
-    if (typeof this.#title === 'function') this.#title = withFormatSettings(this.#settings, this.#title)
-    return this.#title
   }
 
   get working(): string[] {
@@ -504,9 +499,9 @@ class Evaluator {
    * a report), not on every keystroke for every step of a long protocol.
    */
   private hintAt(at: { line: number; span: Span }, c: HintSpec): void {
-    const { label, title, working } = c
-    if (typeof label === 'function' || typeof title === 'function' || typeof working === 'function') this.m.computed.push(new DeferredComputed(at, c))
-    else this.m.computed.push({ line: at.line, span: at.span, anchor: at.span.end, ...c, label, title, working })
+    const { label, working } = c
+    if (typeof label === 'function' || typeof working === 'function') this.m.computed.push(new DeferredComputed(at, c))
+    else this.m.computed.push({ line: at.line, span: at.span, anchor: at.span.end, ...c, label, working })
   }
 
   quantity(
@@ -988,7 +983,7 @@ class Evaluator {
         label,
         value: Q,
         unit: 'C',
-        title: () => `Charge passed in step ${s.label}`,
+        title: `Charge passed in step ${s.label}`,
         working,
       })
     }
@@ -1189,7 +1184,7 @@ class Evaluator {
         label,
         value: y.kind === 'expect' ? (formed + y.initialMol) * f.molarMass : electrons > 0 ? (formed * main.electrons) / electrons : 0,
         unit: y.kind === 'expect' ? 'g' : '1',
-        title: () => `${prettyFormula(main.formula)} in the simulation`,
+        title: `${prettyFormula(main.formula)} in the simulation`,
         working: () => [
           `simulated ${prettyFormula(main.formula)} formed: ${fmt(formed, 4)} mol = ${fmt(formed * f.molarMass, 4)} g` + (y.initialMol > 0 ? `, plus ${fmt(y.initialMol * f.molarMass, 4)} g charged` : ''),
           `simulated current efficiency: ${fmt(formed, 4)} mol × ${main.electrons} ÷ ${fmt(electrons, 4)} mol e⁻ = ${fmt(electrons > 0 ? ((formed * main.electrons) / electrons) * 100 : 0, 3)} %`,
@@ -1455,7 +1450,7 @@ class Evaluator {
         label,
         value: (y.initialMol + y.maxMolEff) * M,
         unit: 'g',
-        title: () => `Theoretical ${pf} (Faraday's law)`,
+        title: `Theoretical ${pf} (Faraday's law)`,
         working,
       })
     } else if (formedMol !== undefined && y.maxMol100 > 0) {
@@ -1465,7 +1460,7 @@ class Evaluator {
         label: () => `current efficiency ${fmt(ce * 100)} %`,
         value: ce,
         unit: '1',
-        title: () => `Current efficiency for ${pf}`,
+        title: `Current efficiency for ${pf}`,
         working: () => [
           ...working(),
           `current efficiency = formed ÷ (n(e⁻)/${fmt(reaction.electrons, 4)}) = ` +
