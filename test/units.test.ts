@@ -21,6 +21,9 @@ import {
   kindOf,
   MAX_EXPRESSION_LENGTH,
   MAX_NESTING,
+  NAME_AT,
+  NUMBER_AT,
+  INTEGER_AT,
   normalise,
   sandbox,
   toNumber,
@@ -599,6 +602,21 @@ describe('the trees built without the parser are the parser\'s trees', () => {
     // Both kinds are exercised: many built directly, many handed to the parser.
     expect(built).toBeGreaterThan(300)
     expect(passed).toBeGreaterThan(500)
+  })
+
+  it('reads numbers and names where the token patterns do (scanned, not matched)', () => {
+    const text = fc.array(fc.constantFrom('1', '23', '.', 'e', 'E', '+', '-', '5', 'x', '_', 'A', ' ', 'é', '9'), { maxLength: 10 }).map((p) => p.join(''))
+    fc.assert(
+      fc.property(text, fc.nat({ max: 12 }), (t, at) => {
+        const i = Math.min(at, t.length)
+        for (const re of [NUMBER_AT, NAME_AT, INTEGER_AT]) {
+          re.lastIndex = i
+          const m = re.exec(t)
+          expect(sandbox.tokenEnd(re, t, i), `${re} in ${JSON.stringify(t)} at ${i}`).toBe(m ? i + m[0].length : i)
+        }
+      }),
+      { numRuns: 4000, seed: 31 },
+    )
   })
 
   it('builds the shapes protocols use most without the parser, as the parser does', () => {

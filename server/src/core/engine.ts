@@ -446,9 +446,9 @@ function bookkeep(input: EngineInput, r: EngineResult, full: boolean): Book {
   const cIons = anode.compartment === cathode.compartment ? aIons : cloneIons(r.ions.get(cathode.compartment)!)
   const a = anode.compartment
   const c = cathode.compartment
-  // The cation that crosses a cation-exchange separator: the most plentiful non-proton cation of the anode side.
-  // The most plentiful of the ions that qualify; on a tie the first in the map's order (as a stable
-  // sort by amount, largest first, would give). A scan, not a sort: this runs for every step.
+  // The cation that crosses a cation-exchange separator: the most plentiful non-proton cation of the
+  // anode side. The most plentiful of the ions that qualify; on a tie the first in the map's order
+  // (as a stable sort by amount, largest first, would give). A scan, not a sort: this runs for every step.
   const mostPlentiful = <V extends { mol: number }>(ions: Map<string, V>, skip: (key: string) => boolean): [string, V] | undefined => {
     let bestKey: string | undefined
     let best: V | undefined
@@ -463,6 +463,14 @@ function bookkeep(input: EngineInput, r: EngineResult, full: boolean): Book {
   }
   const crossing = (side: Ions) => mostPlentiful(side.cations, (el) => el === 'H' || el in DEPOSITABLE)
   const crossingAnion = (side: Ions) => mostPlentiful(side.anions, (n) => n === 'OH')
+  // What a product is (all but its amount) is the same on every step: made once per bookkeeping and
+  // shared by the steps' ledgers, not written again (with its equation and reason) for each step.
+  const described = new Map<string, Omit<Product, 'mol' | 'mol100'>>()
+  const described1 = (k: string, make: () => Omit<Product, 'mol' | 'mol100'>) => {
+    let d = described.get(k)
+    if (!d) described.set(k, (d = make()))
+    return d
+  }
   for (const s of input.steps) {
     const ledger = new Ledger(key)
     const notes: string[] = []
@@ -477,9 +485,15 @@ function bookkeep(input: EngineInput, r: EngineResult, full: boolean): Book {
     const ne = s.chargeC / FARADAY
     /** Hydrogen (cathode) or oxygen (anode) from water takes the electrons the main reaction leaves. */
     const sideHydrogen = (electrons: number, main: string) =>
-      put({ formula: 'H2', electrons: 2, compartment: c, origin: 'cathode', gas: true, equation: '2 H₂O + 2 e⁻ → H₂ + 2 OH⁻', reason: `hydrogen takes the current ${main} leaves` }, electrons / 2)
+      put(
+        described1(`H2 after ${main}`, () => ({ formula: 'H2', electrons: 2, compartment: c, origin: 'cathode', gas: true, equation: '2 H₂O + 2 e⁻ → H₂ + 2 OH⁻', reason: `hydrogen takes the current ${main} leaves` })),
+        electrons / 2,
+      )
     const sideOxygen = (electrons: number, main: string) =>
-      put({ formula: 'O2', electrons: 4, compartment: a, origin: 'anode', gas: true, equation: '2 H₂O → O₂ + 4 H⁺ + 4 e⁻', reason: `oxygen takes the current ${main} leaves` }, electrons / 4)
+      put(
+        described1(`O2 after ${main}`, () => ({ formula: 'O2', electrons: 4, compartment: a, origin: 'anode', gas: true, equation: '2 H₂O → O₂ + 4 H⁺ + 4 e⁻', reason: `oxygen takes the current ${main} leaves` })),
+        electrons / 4,
+      )
     const eta = full ? 1 : Math.min(1, Math.max(0, s.efficiency))
     // --- cathode
     let hydroxide = 0 // mol OH⁻ made at the cathode
@@ -502,7 +516,7 @@ function bookkeep(input: EngineInput, r: EngineResult, full: boolean): Book {
       sideHydrogen(ne - used, 'the stated reaction')
       hydroxide = used * cathode.statedIons! + (ne - used)
     } else {
-      put({ formula: 'H2', electrons: 2, compartment: c, origin: 'cathode', gas: true, equation: cathode.equation, reason: cathode.reason }, ne / 2)
+      put(described1('H2 at the cathode', () => ({ formula: 'H2', electrons: 2, compartment: c, origin: 'cathode', gas: true, equation: cathode.equation, reason: cathode.reason })), ne / 2)
       if (cathode.form === 'acid') protonsUsed = ne
       else hydroxide = ne
     }
@@ -534,7 +548,7 @@ function bookkeep(input: EngineInput, r: EngineResult, full: boolean): Book {
       sideOxygen(ne - used, 'the stated reaction')
       protons = used * anode.statedIons! + (ne - used)
     } else {
-      put({ formula: 'O2', electrons: 4, compartment: a, origin: 'anode', gas: true, equation: anode.equation, reason: anode.reason }, ne / 4)
+      put(described1('O2 at the anode', () => ({ formula: 'O2', electrons: 4, compartment: a, origin: 'anode', gas: true, equation: anode.equation, reason: anode.reason })), ne / 4)
       protons = ne
     }
     // --- what the separator carries, and what pairs up in each compartment
@@ -568,7 +582,15 @@ function bookkeep(input: EngineInput, r: EngineResult, full: boolean): Book {
           if (moved * v.charge < carried - 1e-15) notes.push(`${el}${sup(v.charge)} in ${a} ran out; protons carry the rest of the current and the hydroxide stops growing`)
           const formed = Math.min(moved, hydroxide / v.charge)
           put(
-            { formula: hydroxideFormula(el, v.charge), electrons: v.charge, compartment: c, origin: 'follow-on', gas: false, equation: `${el}${sup(v.charge)} (through the separator) + ${v.charge === 1 ? '' : v.charge + ' '}OH⁻ → ${hydroxideFormula(el, v.charge)}`, reason: `${el}${sup(v.charge)} crosses the cation-exchange separator from ${a} and pairs with the hydroxide made at the cathode` },
+            described1(`hydroxide of ${el} ${v.charge}`, () => ({
+              formula: hydroxideFormula(el, v.charge),
+              electrons: v.charge,
+              compartment: c,
+              origin: 'follow-on',
+              gas: false,
+              equation: `${el}${sup(v.charge)} (through the separator) + ${v.charge === 1 ? '' : v.charge + ' '}OH⁻ → ${hydroxideFormula(el, v.charge)}`,
+              reason: `${el}${sup(v.charge)} crosses the cation-exchange separator from ${a} and pairs with the hydroxide made at the cathode`,
+            })),
             formed,
           )
         }

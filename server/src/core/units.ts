@@ -393,9 +393,11 @@ function run(c: Compiled, scope: Map<string, unknown>): unknown {
  * it. A property test checks that the result equals the parser's for generated expressions of
  * these shapes and near misses.
  */
-const NUMBER_AT = /\d+(?:\.\d+)?(?:[eE][+-]?\d+)?/y
-const NAME_AT = /[A-Za-z_][A-Za-z0-9_]*/y
-const INTEGER_AT = /\d+/y
+// The token patterns simpleTree reads (scanned by numberEnd, nameEnd and digitsEnd, which a test
+// checks against these).
+export const NUMBER_AT = /\d+(?:\.\d+)?(?:[eE][+-]?\d+)?/y
+export const NAME_AT = /[A-Za-z_][A-Za-z0-9_]*/y
+export const INTEGER_AT = /\d+/y
 /** Words mathjs's parser reads as constants or operators, not as names. */
 const PARSER_WORDS = new Set(['true', 'false', 'null', 'undefined', 'NaN', 'Infinity', 'mod', 'to', 'in', 'and', 'or', 'xor', 'not', 'end'])
 type NodeClasses = {
@@ -413,12 +415,13 @@ export function simpleTree(t: string): MathNode | undefined {
     for (let c = t.charCodeAt(i); c === 32 || c === 9 || c === 0xa0; c = t.charCodeAt(++i));
     return i - from
   }
+  // The token at `i` (as the pattern reads it), found by a scan: no match array per token.
   const at = (re: RegExp): string | undefined => {
-    re.lastIndex = i
-    const m = re.exec(t)
-    if (!m) return undefined
-    i += m[0].length
-    return m[0]
+    const end = re === NAME_AT ? nameEnd(t, i) : re === INTEGER_AT ? digitsEnd(t, i) : numberEnd(t, i)
+    if (end === i) return undefined
+    const token = t.slice(i, end)
+    i = end
+    return token
   }
   const name = (): string | null | undefined => {
     const w = at(NAME_AT)
@@ -494,6 +497,42 @@ export function simpleTree(t: string): MathNode | undefined {
     if (!right) return undefined
     left = c === 42 ? new nodes.OperatorNode('*', 'multiply', [left, right], false) : new nodes.OperatorNode('/', 'divide', [left, right], false)
   }
+}
+
+/** Where the digits from `i` end (`i` when there are none). */
+function digitsEnd(t: string, i: number): number {
+  while (i < t.length && t.charCodeAt(i) >= 48 && t.charCodeAt(i) <= 57) i++
+  return i
+}
+
+/** Where a number as NUMBER_AT reads it (`12`, `1.5`, `2e-3`, `2.5E3`) starting at `i` ends; `i` when none starts there. */
+function numberEnd(t: string, i: number): number {
+  let j = digitsEnd(t, i)
+  if (j === i) return i
+  if (t.charCodeAt(j) === 46 /* . */) {
+    const k = digitsEnd(t, j + 1)
+    if (k > j + 1) j = k
+  }
+  const e = t.charCodeAt(j)
+  if (e === 101 || e === 69) {
+    let k = j + 1
+    const sign = t.charCodeAt(k)
+    if (sign === 43 || sign === 45) k++
+    const m = digitsEnd(t, k)
+    if (m > k) j = m
+  }
+  return j
+}
+
+/** Where a name as NAME_AT reads it starting at `i` ends; `i` when none starts there. */
+function nameEnd(t: string, i: number): number {
+  if (!nameStartsAt(t, i)) return i
+  let j = i + 1
+  for (; j < t.length; j++) {
+    const c = t.charCodeAt(j)
+    if (!(c === 95 || (c >= 48 && c <= 57) || (c >= 65 && c <= 90) || (c >= 97 && c <= 122))) break
+  }
+  return j
 }
 
 /** Whether a name (as NAME_AT reads one) starts at `i`. */
@@ -991,6 +1030,10 @@ export const sandbox = {
   /** The kind's stored unit, parsed (valueless), to check inKindUnit against mathjs's toNumber. */
   kindUnit(kind: Exclude<Kind, 'dimensionless'>): Unit {
     return kindUnitRefs.get(kind)!
+  },
+  /** The end of the token at `i` as simpleTree's scanners find it, to check against the patterns. */
+  tokenEnd(re: RegExp, t: string, i: number): number {
+    return re === NAME_AT ? nameEnd(t, i) : re === INTEGER_AT ? digitsEnd(t, i) : numberEnd(t, i)
   },
   /** mathjs's parser, to check simpleTree against. */
   mathjsParse(text: string): MathNode {
