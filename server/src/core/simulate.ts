@@ -278,16 +278,24 @@ class Solution {
   add(k: string, v: number): void {
     const n = (this.amt.get(k) ?? 0) + v
     this.amt.set(k, n < 0 && n > -1e-12 ? 0 : n)
-    this.memo = undefined
+    this.known = false
   }
-  /** Mass, main salt and volume of the current contents, worked out once per change (a time step reads them many times). */
-  private memo: { mass: number; main: ReturnType<Solution['mainSaltUncached']>; volume?: number } | undefined
-  private derived() {
-    if (!this.memo) this.memo = { mass: this.massUncached(), main: this.mainSaltUncached() }
-    return this.memo
+  // Mass, main salt and volume of the current contents, worked out once per change (a time step
+  // reads them many times); kept in fields, not a new object per change.
+  private known = false
+  private knownMass = 0
+  private knownMain: ReturnType<Solution['mainSaltUncached']> = undefined
+  private knownVolume: number | undefined = undefined
+  private derive(): void {
+    if (this.known) return
+    this.knownMass = this.massUncached()
+    this.knownMain = this.mainSaltUncached()
+    this.knownVolume = undefined
+    this.known = true
   }
   massG(): number {
-    return this.derived().mass
+    this.derive()
+    return this.knownMass
   }
   private massUncached(): number {
     let m = 0
@@ -299,7 +307,8 @@ class Solution {
   }
   /** The main solute as a salt/base/acid formula: the most plentiful cation with the most plentiful anion. */
   mainSalt(): { formula: string; mol: number; mass: number } | undefined {
-    return this.derived().main
+    this.derive()
+    return this.knownMain
   }
   private mainSaltUncached(): { formula: string; mol: number; mass: number } | undefined {
     let cat: [string, number] | undefined
@@ -317,9 +326,9 @@ class Solution {
     return { formula: salt.formula, mol: Math.min(cat[1] / salt.nc, an[1] / salt.na), mass: salt.mass }
   }
   volumeL(): number {
-    const d = this.derived()
-    d.volume ??= this.volumeUncached()
-    return d.volume
+    this.derive()
+    this.knownVolume ??= this.volumeUncached()
+    return this.knownVolume
   }
   private volumeUncached(): number {
     const total = this.massG()
