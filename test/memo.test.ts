@@ -161,10 +161,13 @@ describe('kept inputs and results are not changed', () => {
   it('the engine and the simulation run on frozen inputs (they never write to what they are given)', () => {
     // The cache keeps each input to compare the next ones with: a computation that wrote to its
     // input would change what is kept. Frozen inputs make any such write throw (ES modules are strict).
+    // Object.freeze does not stop Map.set or Set.add: frozen Maps and Sets are watched instead.
+    const frozenCollections = new WeakSet<object>()
     const deepFreeze = (v: unknown, seen = new Set<unknown>()): void => {
       if (typeof v !== 'object' || v === null || seen.has(v)) return
       seen.add(v)
       Object.freeze(v)
+      if (v instanceof Map || v instanceof Set) frozenCollections.add(v)
       if (v instanceof Map) for (const [k, x] of v) (deepFreeze(k, seen), deepFreeze(x, seen))
       else if (v instanceof Set) for (const x of v) deepFreeze(x, seen)
       else for (const x of Object.values(v)) deepFreeze(x, seen)
@@ -174,6 +177,21 @@ describe('kept inputs and results are not changed', () => {
     const plainRuns = texts.map((t) => {
       clearAnalysisCaches()
       return JSON.stringify(analyze(t).computed)
+    })
+    const writers = [
+      [Map.prototype, 'set'],
+      [Map.prototype, 'delete'],
+      [Map.prototype, 'clear'],
+      [Set.prototype, 'add'],
+      [Set.prototype, 'delete'],
+      [Set.prototype, 'clear'],
+    ] as const
+    const originals = writers.map(([proto, name]) => (proto as unknown as Record<string, (...a: unknown[]) => unknown>)[name])
+    writers.forEach(([proto, name], i) => {
+      ;(proto as unknown as Record<string, unknown>)[name] = function (this: object, ...args: unknown[]) {
+        if (frozenCollections.has(this)) throw new TypeError(`${name} on a frozen input`)
+        return originals[i].apply(this, args)
+      }
     })
     const get = ResultCache.prototype.get
     let frozen = 0
@@ -189,6 +207,7 @@ describe('kept inputs and results are not changed', () => {
       })
     } finally {
       ResultCache.prototype.get = get
+      writers.forEach(([proto, name], i) => ((proto as unknown as Record<string, unknown>)[name] = originals[i]))
       clearAnalysisCaches()
     }
     // Every example runs the engine, most the simulation too.

@@ -43,6 +43,15 @@ describe('settings', () => {
     expect(three.computed.find((c) => c.key === 'step.charge')!.label).toContain('0.0373 mol e⁻')
   })
 
+  it('writes labels read later in the settings of their analysis, even from nonsense figures', () => {
+    // Labels are written when first read, after analyze() returns: they must still use its settings.
+    // Figures that are not a number fall back to 3; the gas unit must survive that.
+    const a = analyze(PROTOCOL, { significantFigures: NaN, gasUnit: 'mL' })
+    const products = a.computed.find((c) => c.key === 'step.products')!.label
+    expect(products).toMatch(/\d mL H₂/)
+    expect(a.computed.find((c) => c.key === 'step.charge')!.label).toContain('0.0373 mol e⁻')
+  })
+
   it('uses the default conditions when a protocol states none', () => {
     // 0 °C and 101.325 kPa: molar volume R·T/p = 8.314462618 × 273.15 / 101325 m³/mol = 22.414 L/mol
     const { options } = settingsToOptions({ defaults: { temperature: 0, pressure: 101.325 } })

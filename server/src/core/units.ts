@@ -971,7 +971,8 @@ export function gasVolumeText(litres: number, sig = labelFigures): string {
 
 /**
  * The formatting settings in force (significant figures, gas unit), as one number, for text that is
- * written later (a hover's working, only read when someone looks) in the settings of now.
+ * written later (a hover's working, only read when someone looks) in the settings of now. Exact:
+ * the figures are a whole number from 2 to 8 (see withSignificantFigures).
  */
 export function formatSettings(): number {
   return labelFigures * 4 + GAS_UNITS.indexOf(gasUnit)
@@ -987,7 +988,8 @@ export function withFormatSettings<T>(settings: number, f: () => T): T {
 /** Run `f` with another number of significant figures for labels (fmt's default); restores it after. */
 export function withSignificantFigures<T>(sig: number, f: () => T): T {
   const before = labelFigures
-  labelFigures = Math.max(2, Math.min(8, Math.round(sig)))
+  // Always a whole number from 2 to 8 (3 for anything that is not a number): formatSettings packs it.
+  labelFigures = Number.isFinite(sig) ? Math.max(2, Math.min(8, Math.round(sig))) : 3
   try {
     return f()
   } finally {
