@@ -489,6 +489,28 @@ describe('our tree-walking evaluation agrees with mathjs compile()', () => {
     }
   }
 
+  it('evaluateExpression with the document\'s named values gives the same values (the names it reads found without a scope Map)', () => {
+    const named = new Map<string, Value>([
+      ['area', value('36 cm^2')],
+      ['j', value('40 mA/cm^2')],
+      ['n', value('3')],
+    ])
+    let compared = 0
+    fc.assert(
+      fc.property(expr, (e) => {
+        if (e.length > MAX_EXPRESSION_LENGTH) return
+        const r = evaluateExpression(e, named)
+        const theirs = outcome(() => sandbox.mathjsEvaluate(e, scope()))
+        // Ours refuses more (caps, values that are not finite): compare where ours gives a value.
+        if (!r.ok) return
+        compared++
+        expect(outcome(() => r.value), e).toBe(theirs)
+      }),
+      { numRuns: 2000, seed: 37 },
+    )
+    expect(compared).toBeGreaterThan(1000)
+  })
+
   it('the same value (or both refuse) over 3,000 generated expressions', () => {
     let compared = 0
     let capped = 0

@@ -311,19 +311,31 @@ class Solution {
     return this.knownMain
   }
   private mainSaltUncached(): { formula: string; mol: number; mass: number } | undefined {
-    let cat: [string, number] | undefined
-    let an: [string, number] | undefined
+    // The leading cation and anion by charge carried (kept as key and amount, not as pairs).
+    let catKey: string | undefined
+    let catMol = 0
+    let anKey: string | undefined
+    let anMol = 0
     for (const [k, v] of this.amt) {
       if (k === WATER || v <= 1e-12) continue
       const c = species(k).charge
-      if (c > 0 && k !== 'H^+' && (!cat || v * c > cat[1] * species(cat[0]).charge)) cat = [k, v]
-      if (c < 0 && (!an || v * -c > an[1] * -species(an[0]).charge)) an = [k, v]
+      if (c > 0 && k !== 'H^+' && (catKey === undefined || v * c > catMol * species(catKey).charge)) {
+        catKey = k
+        catMol = v
+      }
+      if (c < 0 && (anKey === undefined || v * -c > anMol * -species(anKey).charge)) {
+        anKey = k
+        anMol = v
+      }
     }
     const hPlus = this.get('H^+')
-    if (!cat && hPlus > 1e-12) cat = ['H^+', hPlus]
-    if (!cat || !an) return undefined
-    const salt = saltOf(cat[0], an[0])
-    return { formula: salt.formula, mol: Math.min(cat[1] / salt.nc, an[1] / salt.na), mass: salt.mass }
+    if (catKey === undefined && hPlus > 1e-12) {
+      catKey = 'H^+'
+      catMol = hPlus
+    }
+    if (catKey === undefined || anKey === undefined) return undefined
+    const salt = saltOf(catKey, anKey)
+    return { formula: salt.formula, mol: Math.min(catMol / salt.nc, anMol / salt.na), mass: salt.mass }
   }
   volumeL(): number {
     this.derive()

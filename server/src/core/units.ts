@@ -372,7 +372,7 @@ const NO_UNITS: string[] = []
 const NO_INPUTS: (Value | undefined)[] = []
 
 /** The value of a compiled expression with `scope` (named values and units), huge powers refused. */
-function run(c: Compiled, scope: Map<string, unknown>): unknown {
+function run(c: Compiled, scope: Lookup): unknown {
   return refuseHugePowers(evalNode(c.tree, scope))
 }
 
@@ -549,7 +549,7 @@ const mathFns = math as unknown as Record<string, MathFn | number>
  * a name from the scope (named values, and units put there by the caller), else a constant (`pi`);
  * an operator or function by the instance's function of that name.
  */
-function evalNode(node: MathNode, scope: Map<string, unknown>): unknown {
+function evalNode(node: MathNode, scope: Lookup): unknown {
   const n = node as MathNode & { fn?: string | MathNode; name?: string; args?: MathNode[]; content?: MathNode; value?: unknown }
   switch (node.type) {
     case 'ConstantNode':
@@ -676,13 +676,43 @@ export function evaluateExpression(text: string, scope: ReadonlyMap<string, Valu
   return result
 }
 
+/** What evalNode reads names from: a Map, or NamesIn. */
+interface Lookup {
+  has(name: string): boolean
+  get(name: string): unknown
+}
+
+/**
+ * The names an expression reads, as a Map of them would hold them (the expression's named values
+ * with a value, else its units as units) without making the Map on every evaluation.
+ */
+class NamesIn implements Lookup {
+  constructor(
+    private readonly c: Compiled,
+    private readonly values: ReadonlyMap<string, Value>,
+  ) {}
+
+  private value(name: string): Value | undefined {
+    for (const n of this.c.names) if (n.name === name) return this.values.get(name)
+    return undefined
+  }
+
+  has(name: string): boolean {
+    return this.value(name) !== undefined || this.c.unitSymbols.includes(name)
+  }
+
+  get(name: string): unknown {
+    const v = this.value(name)
+    if (v !== undefined) return v
+    return this.c.unitSymbols.includes(name) ? unitSymbolValue(name) : undefined
+  }
+}
+
 function evaluateCompiled(text: string, c: Compiled, scope: ReadonlyMap<string, Value>): EvalResult {
-  const s = new Map<string, unknown>()
-  for (const u of c.unitSymbols) s.set(u, unitSymbolValue(u))
+  const s = new NamesIn(c, scope)
   for (const n of c.names) {
     const v = scope.get(n.name)
-    if (v !== undefined) s.set(n.name, v)
-    else if (!n.isUnit) {
+    if (v === undefined && !n.isUnit) {
       return {
         ok: false,
         failure: { reason: 'unknown-name', message: `unknown name \`${n.name}\``, start: n.start, end: n.end, name: n.name },

@@ -111,27 +111,41 @@ interface Over {
   limit: Limit
 }
 
-function overLimits(model: Model, currentA: number): Over[] {
-  const out: Over[] = []
+/** The parts with a current density limit, each with the area the current passes through. */
+interface Limited {
+  part: string
+  areaCm2: number
+  limit: Limit
+}
+
+/** The anodes (sharing the current in proportion to their areas; all need one) and separators that have a limit, in that order. */
+function limitedParts(model: Model): Limited[] {
+  const out: Limited[] = []
   const anodes = model.electrodes.filter((e) => e.role === 'anode')
-  // Electrodes of one role share the current (in proportion to their areas); all need an area.
   if (anodes.length > 0 && anodes.every((e) => e.areaCm2 !== undefined)) {
     const total = anodes.reduce((t, e) => t + e.areaCm2!, 0)
-    const j = (currentA * 1000) / total
     for (const e of anodes) {
       const alkaline = model.engine?.ph.get(e.compartment) === 'alkaline'
       const limit = ANODE_LIMITS.find((l) => l.match(e.material.text, alkaline))
-      if (limit && j > limit.mAcm2 * (1 + 1e-9)) {
-        const part = anodes.length === 1 ? `the ${e.material.text} anode` : `the ${e.material.text} anode (${anodes.length} anodes share the current)`
-        out.push({ part, areaCm2: total, jmAcm2: j, limit })
-      }
+      if (!limit) continue
+      const part = anodes.length === 1 ? `the ${e.material.text} anode` : `the ${e.material.text} anode (${anodes.length} anodes share the current)`
+      out.push({ part, areaCm2: total, limit })
     }
   }
   for (const s of model.separators) {
     const limit = SEPARATOR_LIMITS[s.type.text]
     if (!limit || s.areaCm2 === undefined) continue
-    const j = (currentA * 1000) / s.areaCm2
-    if (j > limit.mAcm2 * (1 + 1e-9)) out.push({ part: `the ${s.type.text} separator between ${s.between[0]} and ${s.between[1]}`, areaCm2: s.areaCm2, jmAcm2: j, limit })
+    out.push({ part: `the ${s.type.text} separator between ${s.between[0]} and ${s.between[1]}`, areaCm2: s.areaCm2, limit })
+  }
+  return out
+}
+
+/** The parts a current drives above their limit. */
+function overLimits(parts: readonly Limited[], currentA: number): Over[] {
+  const out: Over[] = []
+  for (const p of parts) {
+    const j = (currentA * 1000) / p.areaCm2
+    if (j > p.limit.mAcm2 * (1 + 1e-9)) out.push({ part: p.part, areaCm2: p.areaCm2, jmAcm2: j, limit: p.limit })
   }
   return out
 }
@@ -149,9 +163,12 @@ export const currentDensityLimit: Rule = {
     "Run electrodes and membranes within their maker's rated current density, raise the current in steps while watching the cell voltage and temperature, and stop if either climbs. Follow the maker's data, your local codes, the safety data sheets and your institution's licensed practice.",
   check({ model }) {
     const out: Diagnostic[] = []
+    // The parts and their limits are the same for every step: found once.
+    const limited = limitedParts(model)
+    if (limited.length === 0) return out
     for (const s of model.steps) {
       if (s.currentA === undefined || !(s.currentA > 0)) continue
-      const over = overLimits(model, s.currentA)
+      const over = overLimits(limited, s.currentA)
       if (over.length === 0) continue
       const node = model.tree.lines[s.line]
       const clause = node.kind === 'step' ? node.clauses.find((c) => c.keyword.text === 'current') : undefined
