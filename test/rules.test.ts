@@ -9,7 +9,9 @@
 // outside constants: F = 96485.33212 C/mol (CODATA 2018), atomic weights IUPAC 2021 (from memory).
 import { readdirSync, readFileSync } from 'node:fs'
 import { fileURLToPath } from 'node:url'
+import fc from 'fast-check'
 import { describe, expect, it } from 'vitest'
+import { mayBeNoted } from '../server/src/rules/noted'
 import { analyze, type Analysis } from '../server/src/core/analyze'
 import { RULES } from '../server/src/rules'
 import { toNumber } from '../server/src/core/units'
@@ -687,5 +689,21 @@ describe('the rule registry', () => {
 
   it('every rule has a test above that pins its diagnostics with markers', () => {
     expect([...pinned].sort()).toEqual(RULES.filter((r) => r.category !== 'safety').map((r) => r.code).sort())
+  })
+})
+
+describe('the quick check for an acknowledgement comment', () => {
+  it('finds `#\\s*noted\\s` where the pattern does, in any text at any place', () => {
+    // The oracle is the pattern itself, run at the place (sticky).
+    const pattern = /#\s*noted\s/y
+    const text = fc.array(fc.constantFrom('#', ' ', '\t', '\u00a0', '\u2003', 'noted', 'note', 'd', 'x', '\n', 'NOTED'), { maxLength: 8 }).map((p) => p.join(''))
+    fc.assert(
+      fc.property(text, fc.nat({ max: 10 }), (t, at) => {
+        const i = Math.min(at, t.length)
+        pattern.lastIndex = i
+        expect(mayBeNoted(t, i), `${JSON.stringify(t)} at ${i}`).toBe(pattern.test(t))
+      }),
+      { numRuns: 4000, seed: 41 },
+    )
   })
 })
