@@ -559,6 +559,48 @@ describe('numbers in a kind\'s unit are mathjs\'s numbers', () => {
   })
 })
 
+describe('a number times a unit is mathjs\'s product', () => {
+  // The oracle is the sandboxed instance's own multiply(x, unit), compared field by field.
+  const fields = (v: unknown) => {
+    if (!isUnit(v)) return { plain: v }
+    const u = v as unknown as { value: number; dimensions: number[]; fixPrefix: boolean; skipAutomaticSimplification: boolean; units: { unit: { name: string }; prefix: { name: string }; power: number }[] }
+    return {
+      value: Object.is(u.value, -0) ? '-0' : u.value,
+      dimensions: u.dimensions,
+      fixPrefix: u.fixPrefix,
+      skip: u.skipAutomaticSimplification,
+      units: u.units.map((x) => [x.unit.name, x.prefix.name, x.power]),
+    }
+  }
+  it('for every unit mathjs knows here, with and without prefixes, and any number', () => {
+    const names: string[] = []
+    for (const { name, prefixes } of sandbox.unitTable()) {
+      names.push(name)
+      for (const p of prefixes.slice(0, 3)) if (p) names.push(p + name)
+    }
+    const usable = names.filter((n) => {
+      try {
+        return isUnit(sandbox.unitValue(n))
+      } catch {
+        return false
+      }
+    })
+    expect(usable.length).toBeGreaterThan(200)
+    let fast = 0
+    fc.assert(
+      fc.property(fc.constantFrom(...usable), fc.oneof(fc.double({ noNaN: true }), fc.integer(), fc.constantFrom(0, -0, 1, 0.1, 1e-300, 1e300)), (name, x) => {
+        const unit = sandbox.unitValue(name)
+        const ours = sandbox.scaledUnit(unit, x)
+        if (ours === undefined) return
+        fast++
+        expect(fields(ours), `${x} ${name}`).toEqual(fields(sandbox.mathjsMultiply(x, unit)))
+      }),
+      { numRuns: 5000, seed: 43 },
+    )
+    expect(fast).toBeGreaterThan(4000)
+  })
+})
+
 describe('the trees built without the parser are the parser\'s trees', () => {
   // The oracle is mathjs's own parser on the same (normalised) text.
   type Shape = { type: string; fn?: string; op?: string; implicit?: boolean; isPercentage?: boolean; name?: string; value?: unknown; args?: Shape[] }

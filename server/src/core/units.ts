@@ -565,7 +565,17 @@ function evalNode(node: MathNode, scope: Lookup): unknown {
     case 'OperatorNode': {
       const fn = mathFns[n.fn as string] as MathFn
       const args = n.args!
-      return args.length === 1 ? fn(evalNode(args[0], scope)) : args.length === 2 ? fn(evalNode(args[0], scope), evalNode(args[1], scope)) : fn(...args.map((a) => evalNode(a, scope)))
+      if (args.length === 2) {
+        const a = evalNode(args[0], scope)
+        const b = evalNode(args[1], scope)
+        // `200 g`: a number times a unit, the commonest product, made as mathjs makes it (scaledUnit).
+        if (n.fn === 'multiply' && typeof a === 'number' && isUnit(b) && b.value === null) {
+          const scaled = scaledUnit(b, a)
+          if (scaled) return scaled
+        }
+        return fn(a, b)
+      }
+      return args.length === 1 ? fn(evalNode(args[0], scope)) : fn(...args.map((a) => evalNode(a, scope)))
     }
     case 'FunctionNode': {
       const name = (n.fn as MathNode & { name: string }).name
@@ -576,6 +586,31 @@ function evalNode(node: MathNode, scope: Lookup): unknown {
       // Not reachable: compile() refuses every other node type.
       throw new Error(`${node.type} is not allowed`)
   }
+}
+
+const BASE_DIMENSIONS = (UnitClass as unknown as { BASE_DIMENSIONS: unknown[] }).BASE_DIMENSIONS
+
+/**
+ * `x` times a valueless unit (a unit name: `g`, `mA`), as mathjs's multiply(x, unit) makes it, with
+ * its arithmetic in its order (Unit.multiply: a copy of the unit, dimensions summed with those of a
+ * plain number, value = the unit's normalised 1 times x) without dispatching through typed-function
+ * or wrapping x in a Unit. Undefined for a dimensionless unit (mathjs then returns a plain number)
+ * or one whose definition is not a plain number: the caller goes the mathjs way. A test compares
+ * the results field by field over every unit.
+ */
+function scaledUnit(unit: Unit, x: number): Unit | undefined {
+  const u = unit as unknown as UnitParts & { dimensions: number[] }
+  let dimensional = false
+  for (const d of u.dimensions) if (d !== 0) dimensional = true
+  if (!dimensional) return undefined
+  // Units defined by other than plain numbers (VAR is complex) go the mathjs way.
+  for (const part of u.units) if (typeof part.unit.value !== 'number' || typeof part.prefix.value !== 'number' || typeof part.power !== 'number') return undefined
+  const res = unit.clone() as unknown as UnitParts & { dimensions: number[] }
+  for (let i = 0; i < BASE_DIMENSIONS.length; i++) res.dimensions[i] = (u.dimensions[i] || 0) + 0
+  let one = 1
+  for (const part of u.units) one = one * Math.pow(part.unit.value * part.prefix.value, part.power)
+  res.value = one * x
+  return res as unknown as Unit
 }
 
 function refuseHugePowers(v: unknown): unknown {
@@ -1066,6 +1101,14 @@ export const sandbox = {
   /** The end of the token at `i` as simpleTree's scanners find it, to check against the patterns. */
   tokenEnd(re: RegExp, t: string, i: number): number {
     return re === NAME_AT ? nameEnd(t, i) : re === INTEGER_AT ? digitsEnd(t, i) : numberEnd(t, i)
+  },
+  /** scaledUnit, to check against mathjs's multiply. */
+  scaledUnit(unit: Unit, x: number): Unit | undefined {
+    return scaledUnit(unit, x)
+  },
+  /** The sandboxed instance's multiply, the oracle for scaledUnit. */
+  mathjsMultiply(x: number, unit: Unit): unknown {
+    return (mathFns.multiply as MathFn)(x, unit)
   },
   /** mathjs's parser, to check simpleTree against. */
   mathjsParse(text: string): MathNode {
