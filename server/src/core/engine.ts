@@ -452,7 +452,8 @@ function bookkeep(input: EngineInput, r: EngineResult, full: boolean): Book {
   const mostPlentiful = <V extends { mol: number }>(ions: Map<string, V>, skip: (key: string) => boolean): [string, V] | undefined => {
     let bestKey: string | undefined
     let best: V | undefined
-    for (const [k, v] of ions) {
+    for (const k of ions.keys()) {
+      const v = ions.get(k)!
       if (skip(k) || !(v.mol > 1e-15)) continue
       if (best === undefined || v.mol > best.mol) {
         bestKey = k
@@ -678,7 +679,10 @@ function cloneIons(i: Ions): Ions {
 export function sameSubstance(productFormula: string, f: Formula): boolean {
   const p = parseFormula(productFormula)
   if (!p.ok || !f.ok || p.charge !== f.charge || p.counts.size !== f.counts.size) return false
-  for (const [el, n] of f.counts) if (p.counts.get(el) !== n) return false
+  for (const el of f.counts.keys()) {
+    const n = f.counts.get(el)!
+    if (p.counts.get(el) !== n) return false
+  }
   return true
 }
 

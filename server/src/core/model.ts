@@ -1551,7 +1551,9 @@ function chargedMol(c: Compartment, f: Formula): number {
   let mol = 0
   for (const s of c.solutes.values()) {
     if (s.formula.charge !== f.charge || s.formula.counts.size !== f.counts.size) continue
-    if ([...f.counts].every(([el, k]) => s.formula.counts.get(el) === k)) mol += s.mol
+    let same = true
+    for (const el of f.counts.keys()) if (s.formula.counts.get(el) !== f.counts.get(el)) same = false
+    if (same) mol += s.mol
   }
   return mol
 }

@@ -299,7 +299,10 @@ class Solution {
   }
   private massUncached(): number {
     let m = 0
-    for (const [k, v] of this.amt) m += v * (k === WATER ? M_WATER : species(k).mass)
+    for (const k of this.amt.keys()) {
+      const v = this.amt.get(k)!
+      m += v * (k === WATER ? M_WATER : species(k).mass)
+    }
     return m
   }
   waterG(): number {
@@ -316,7 +319,8 @@ class Solution {
     let catMol = 0
     let anKey: string | undefined
     let anMol = 0
-    for (const [k, v] of this.amt) {
+    for (const k of this.amt.keys()) {
+      const v = this.amt.get(k)!
       if (k === WATER || v <= 1e-12) continue
       const c = species(k).charge
       if (c > 0 && k !== 'H^+' && (catKey === undefined || v * c > catMol * species(catKey).charge)) {
@@ -375,9 +379,15 @@ class Solution {
     const m = this.mainSalt()
     // Built by loops (same keys, same order as the Maps): one snapshot per compartment per step.
     const species: Record<string, number> = {}
-    for (const [k, v] of this.amt) if (v > 1e-15) species[k] = v
+    for (const k of this.amt.keys()) {
+      const v = this.amt.get(k)!
+      if (v > 1e-15) species[k] = v
+    }
     const solids: Record<string, number> = {}
-    for (const [k, v] of this.solids) solids[k] = v
+    for (const k of this.solids.keys()) {
+      const v = this.solids.get(k)!
+      solids[k] = v
+    }
     const snap: CompartmentSnapshot = {
       name: this.name,
       species,
@@ -726,7 +736,10 @@ function point(time: number, state: State, main: ReturnType<typeof mainProductOf
 
 function sumWhere(s: Solution, pred: (k: string) => boolean): number {
   let t = 0
-  for (const [k, v] of s.amt) if (k !== WATER && pred(k)) t += v * Math.abs(species(k).charge)
+  for (const k of s.amt.keys()) {
+    const v = s.amt.get(k)!
+    if (k !== WATER && pred(k)) t += v * Math.abs(species(k).charge)
+  }
   return t
 }
 
@@ -753,7 +766,8 @@ const OXYGEN_SIDE_ANIONS = ['CO3^2-', 'HCO3^-', 'OH^-']
 /** The charge of the cations in a solution, mol (sumWhere over the cations, without a closure). */
 function cationCharge(s: Solution): number {
   let t = 0
-  for (const [k, v] of s.amt) {
+  for (const k of s.amt.keys()) {
+    const v = s.amt.get(k)!
     if (k === WATER) continue
     const z = species(k).charge
     if (z > 0) t += v * Math.abs(z)
@@ -831,13 +845,15 @@ function transport(type: 'cation-exchange' | 'anion-exchange' | 'diaphragm', a: 
   // Carriers: cations leave the anode side toward the cathode; anions leave the cathode side.
   const carriers: { from: Solution; to: Solution; key: string; z: number; k: number }[] = []
   if (type !== 'anion-exchange') {
-    for (const [k, v] of a.amt) {
+    for (const k of a.amt.keys()) {
+      const v = a.amt.get(k)!
       const z = k === WATER ? 0 : species(k).charge
       if (z > 0 && v > 0) carriers.push({ from: a, to: c, key: k, z, k: z * (v / Va) * lambda(k) })
     }
   }
   if (type !== 'cation-exchange') {
-    for (const [k, v] of c.amt) {
+    for (const k of c.amt.keys()) {
+      const v = c.amt.get(k)!
       const z = k === WATER ? 0 : species(k).charge
       if (z < 0 && v > 0) carriers.push({ from: c, to: a, key: k, z: -z, k: -z * (v / Vc) * lambda(k) })
     }
