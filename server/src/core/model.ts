@@ -423,6 +423,15 @@ const ANY_KIND: readonly Kind[] = [
 
 const WATER_NAMES = new Set(['water', 'H2O'])
 
+// The kinds each statement expects, shared (a fact refers to its list; no list per fact).
+const CURRENT_KINDS: readonly Kind[] = ['current', 'current-density']
+const VOLTAGE_KINDS: readonly Kind[] = ['voltage']
+const TIME_KINDS: readonly Kind[] = ['time']
+const FRACTION_KINDS: readonly Kind[] = ['dimensionless']
+const GAS_AMOUNT_KINDS: readonly Kind[] = ['mass', 'amount', 'volume']
+const PLANNED_AMOUNT_KINDS: readonly Kind[] = ['mass', 'amount', 'mass-fraction', 'molarity']
+const AMOUNT_KINDS: readonly Kind[] = ['mass', 'amount']
+
 /** A hint as the evaluator makes it: label and working may be given as functions, run when first read. */
 interface HintSpec {
   key: string
@@ -884,7 +893,7 @@ class Evaluator {
         case 'current': {
           s.hasCurrentClause = true
           s.currentText = c.expr.text
-          const q = this.quantity(n, c.expr, `the current of ${stepName}`, ['current', 'current-density'], 'positive', c.keyword)
+          const q = this.quantity(n, c.expr, `the current of ${stepName}`, CURRENT_KINDS, 'positive', c.keyword)
           if (q.number === undefined) break
           if (q.number <= 0) break // out of range: reported, and kept out of the totals
           if (q.kind === 'current') s.currentA = q.number
@@ -901,18 +910,18 @@ class Evaluator {
         }
         case 'voltage': {
           s.hasVoltageClause = true
-          const q = this.quantity(n, c.expr, `the cell voltage of ${stepName}`, ['voltage'], 'positive', c.keyword)
+          const q = this.quantity(n, c.expr, `the cell voltage of ${stepName}`, VOLTAGE_KINDS, 'positive', c.keyword)
           if (q.number !== undefined && q.number > 0) s.voltageV = q.number
           break
         }
         case 'for': {
           s.hasDurationClause = true
-          const q = this.quantity(n, c.expr, `the duration of ${stepName}`, ['time'], 'positive', c.keyword)
+          const q = this.quantity(n, c.expr, `the duration of ${stepName}`, TIME_KINDS, 'positive', c.keyword)
           if (q.number !== undefined && q.number > 0) s.seconds = q.number
           break
         }
         case 'efficiency': {
-          const q = this.quantity(n, c.expr, `the current efficiency of ${stepName}`, ['dimensionless'], 'fraction', c.keyword)
+          const q = this.quantity(n, c.expr, `the current efficiency of ${stepName}`, FRACTION_KINDS, 'fraction', c.keyword)
           if (q.number !== undefined && q.number > 0 && q.number <= 1) s.efficiency = q.number
           break
         }
@@ -1333,7 +1342,7 @@ class Evaluator {
     // Without a described cell, fall back to the usual reaction for the product.
     const fallback = cellKnown ? undefined : productReaction(f, this.saltsIn(compName))
     const gas = formed.length ? formed[0].gas : fallback?.ok ? fallback.reaction.gas : KNOWN_GASES.has(ff.tok.text)
-    const kinds: Kind[] = gas ? ['mass', 'amount', 'volume'] : n.kind === 'expect' && compName ? ['mass', 'amount', 'mass-fraction', 'molarity'] : ['mass', 'amount']
+    const kinds = gas ? GAS_AMOUNT_KINDS : n.kind === 'expect' && compName ? PLANNED_AMOUNT_KINDS : AMOUNT_KINDS
     const q = this.quantity(n, n.quantity, `the ${n.kind === 'expect' ? 'planned' : 'measured'} amount of ${n.formula.text}`, kinds, 'non-negative')
     if ((q.kind === 'mass-fraction' || q.kind === 'molarity') && q.number !== undefined && compName) {
       // A planned concentration: the simulation reports when (and whether) it is reached.
