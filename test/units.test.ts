@@ -683,6 +683,24 @@ describe('the trees built without the parser are the parser\'s trees', () => {
     )
   })
 
+  it('compiles those shapes to the same names, places and units as walking the tree does', () => {
+    let same = 0
+    fc.assert(
+      fc.property(text, (t) => {
+        const { shortcut, walked } = sandbox.compiledNames(t)
+        expect(shortcut, JSON.stringify(t)).toEqual(walked)
+        same++
+      }),
+      { numRuns: 4000, seed: 47 },
+    )
+    expect(same).toBe(4000)
+    // And with names written more than once, and a name inside another.
+    for (const t of ['g * g', 'area * a / area', 'a * area', 'j12 * j1', '2 mA / mA', 'pi * r', 'x * pi * x']) {
+      const { shortcut, walked } = sandbox.compiledNames(t)
+      expect(shortcut, t).toEqual(walked)
+    }
+  })
+
   it('builds the shapes protocols use most without the parser, as the parser does', () => {
     const built = ['93 %', '93%', '95 mA/cm^2', '200 cm^2', 'cm^-2', '1 mol / L / s', 'j12 * area', '0.5 mol/L', '30 degC', '10 m^+2 * x']
     for (const t of built) {

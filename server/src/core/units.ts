@@ -228,7 +228,7 @@ function isNameChar(t: string, i: number, before: boolean): boolean {
   return cp !== undefined && NAME_CHAR.test(String.fromCodePoint(cp))
 }
 
-function compile(text: string): CompileResult {
+function compile(text: string, shortcut = true): CompileResult {
   if (text.trim() === '') {
     return { ok: false, failure: { reason: 'syntax', message: 'a value is missing here', start: 0, end: 0 } }
   }
@@ -246,14 +246,33 @@ function compile(text: string): CompileResult {
   // Cheap nesting cap before handing the text to the parser (its recursion depth follows the nesting).
   let depth = 0
   let maxDepth = 0
-  for (const ch of text) {
-    if (ch === '(' || ch === '[' || ch === '{') maxDepth = Math.max(maxDepth, ++depth)
-    else if (ch === ')' || ch === ']' || ch === '}') depth--
+  for (let i = 0; i < text.length; i++) {
+    const c = text.charCodeAt(i)
+    if (c === 40 || c === 91 || c === 123) maxDepth = Math.max(maxDepth, ++depth)
+    else if (c === 41 || c === 93 || c === 125) depth--
   }
   if (maxDepth > MAX_NESTING) {
     return {
       ok: false,
       failure: { reason: 'too-long', message: `expression nests deeper than ${MAX_NESTING} levels`, start: 0, end: text.length },
+    }
+  }
+  // The commonest expressions (plain text, a shape simpleTree reads) are checked and located as
+  // they are read: their names and places come from the scan, not from walking the tree and
+  // searching the text again. A test checks both ways give the same names, places and units.
+  if (shortcut && isPlain(text)) {
+    const symbols: { name: string; at: number }[] = []
+    const simple = simpleTree(text, symbols)
+    if (simple) {
+      const names: Compiled['names'] = []
+      let unitSymbols: string[] = NO_UNITS
+      for (const { name, at } of symbols) {
+        if (CONSTANTS.has(name)) continue
+        const isUnit = isUnitName(name)
+        names.push({ name, start: at, end: at + name.length, isUnit })
+        if (isUnit && !unitSymbols.includes(name)) unitSymbols = unitSymbols === NO_UNITS ? [name] : [...unitSymbols, name]
+      }
+      return { ok: true, tree: simple, names, unitSymbols }
     }
   }
   const norm = normalise(text)
@@ -407,7 +426,7 @@ type NodeClasses = {
 }
 const nodes = math as unknown as NodeClasses
 
-export function simpleTree(t: string): MathNode | undefined {
+export function simpleTree(t: string, symbols?: { name: string; at: number }[]): MathNode | undefined {
   const n = t.length
   let i = 0
   const skip = (): number => {
@@ -431,6 +450,8 @@ export function simpleTree(t: string): MathNode | undefined {
   // NAME, then an optional `^ EXP`.
   const powered = (w: string): MathNode | undefined => {
     const sym = new nodes.SymbolNode(w)
+    // Each name where it stands (the name was just read), in the order a walk of the tree meets them.
+    symbols?.push({ name: w, at: i - w.length })
     const back = i
     skip()
     if (t.charCodeAt(i) !== 94 /* ^ */) {
@@ -1109,6 +1130,11 @@ export const sandbox = {
   /** The sandboxed instance's multiply, the oracle for scaledUnit. */
   mathjsMultiply(x: number, unit: Unit): unknown {
     return (mathFns.multiply as MathFn)(x, unit)
+  },
+  /** What compile() finds an expression reads, with and without its shortcut for the commonest shapes. */
+  compiledNames(text: string): { shortcut: unknown; walked: unknown } {
+    const view = (c: CompileResult) => (c.ok ? { names: c.names, unitSymbols: c.unitSymbols, tree: c.tree.toString() } : { failure: c.failure })
+    return { shortcut: view(compile(text)), walked: view(compile(text, false)) }
   },
   /** mathjs's parser, to check simpleTree against. */
   mathjsParse(text: string): MathNode {
