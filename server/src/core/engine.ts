@@ -430,6 +430,9 @@ export function runEngine(input: EngineInput): EngineResult {
   return result
 }
 
+/** The notes of a step without any, shared (results are read-only: see memo.ts). */
+const NO_NOTES = Object.freeze([]) as unknown as string[]
+
 interface Book {
   total: Ledger
   steps: StepProducts[]
@@ -480,7 +483,7 @@ function bookkeep(input: EngineInput, r: EngineResult, full: boolean): Book {
       total.add(p, mol)
     }
     if (s.chargeC === undefined || !(s.chargeC > 0)) {
-      steps.push({ line: s.line, products: [], notes })
+      steps.push({ line: s.line, products: [], notes: NO_NOTES })
       continue
     }
     const ne = s.chargeC / FARADAY
@@ -615,7 +618,7 @@ function bookkeep(input: EngineInput, r: EngineResult, full: boolean): Book {
         }
       }
     }
-    steps.push({ line: s.line, products: ledger.products, notes })
+    steps.push({ line: s.line, products: ledger.products, notes: notes.length > 0 ? notes : NO_NOTES })
 
     /** Mol of electrons a stated reaction takes, up to `wanted`, as far as the ions it uses last; draws them down. */
     function statedShare(r: ElectrodeReaction, side: Ions, wanted: number, where: string): number {
