@@ -435,6 +435,7 @@ const NO_NOTES = Object.freeze([]) as unknown as string[]
 
 interface Book {
   total: Ledger
+  /** Each step's products and notes (empty for the bookkeeping at 100 %, of which only the totals are used). */
   steps: StepProducts[]
 }
 
@@ -476,14 +477,15 @@ function bookkeep(input: EngineInput, r: EngineResult, full: boolean): Book {
     return d
   }
   for (const s of input.steps) {
-    const ledger = new Ledger(key)
+    // At 100 % (full) only the totals are used: no ledger per step.
+    const ledger = full ? undefined : new Ledger(key)
     const notes: string[] = []
     const put = (p: Omit<Product, 'mol' | 'mol100'>, mol: number) => {
-      ledger.add(p, mol)
+      ledger?.add(p, mol)
       total.add(p, mol)
     }
     if (s.chargeC === undefined || !(s.chargeC > 0)) {
-      steps.push({ line: s.line, products: [], notes: NO_NOTES })
+      if (!full) steps.push({ line: s.line, products: [], notes: NO_NOTES })
       continue
     }
     const ne = s.chargeC / FARADAY
@@ -618,7 +620,7 @@ function bookkeep(input: EngineInput, r: EngineResult, full: boolean): Book {
         }
       }
     }
-    steps.push({ line: s.line, products: ledger.products, notes: notes.length > 0 ? notes : NO_NOTES })
+    if (ledger) steps.push({ line: s.line, products: ledger.products, notes: notes.length > 0 ? notes : NO_NOTES })
 
     /** Mol of electrons a stated reaction takes, up to `wanted`, as far as the ions it uses last; draws them down. */
     function statedShare(r: ElectrodeReaction, side: Ions, wanted: number, where: string): number {
