@@ -1071,13 +1071,14 @@ class Evaluator {
       anode: e.anode,
       cathode,
       ...(divided ? { separator: { type: sepType!, ...(sep?.drag !== undefined ? { drag: sep.drag } : {}) } } : {}),
+      // One layout for every step (absent values undefined, not missing).
       steps: m.steps.map((x) => ({
         line: x.line,
         // A step below the reversible voltage passes no faradaic current.
-        ...(x.currentA !== undefined && !(v && x.voltageV !== undefined && x.voltageV < v.reversible) ? { currentA: x.currentA } : {}),
-        ...(x.seconds !== undefined ? { seconds: x.seconds } : {}),
+        currentA: x.currentA !== undefined && !(v && x.voltageV !== undefined && x.voltageV < v.reversible) ? x.currentA : undefined,
+        seconds: x.seconds,
         efficiency: x.efficiency,
-        ...(x.voltageV !== undefined ? { voltageV: x.voltageV } : {}),
+        voltageV: x.voltageV,
       })),
       temperatureK: m.temperatureK,
       cooled: m.handling.some((h) => h.type.text === 'cooling'),
@@ -1217,7 +1218,7 @@ class Evaluator {
         // A step held below the reversible voltage forms nothing.
         steps: m.steps.map((x) => ({
           line: x.line,
-          ...(x.chargeC !== undefined && !(below !== undefined && x.voltageV !== undefined && x.voltageV < below) ? { chargeC: x.chargeC } : {}),
+          chargeC: x.chargeC !== undefined && !(below !== undefined && x.voltageV !== undefined && x.voltageV < below) ? x.chargeC : undefined,
           efficiency: x.efficiency,
         })),
         stated: m.reactions
