@@ -706,7 +706,7 @@ export function simulate(input: SimInput): SimResult {
       line: step.line,
       endTime: time,
       electronMol: stepElectrons,
-      ...(main ? { product: { formula: main.formula, mol: formed, efficiency: eff } } : {}),
+      product: main ? { formula: main.formula, mol: formed, efficiency: eff } : undefined,
       compartments: sols.map((s) => s.snapshot(main && s.name === main.compartment ? main.formula : undefined)),
       gases: { ...state.gases },
       temperatureK: state.T,
