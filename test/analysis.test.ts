@@ -90,3 +90,26 @@ describe('outline', () => {
     expect(src.slice(cell.span.start, cell.span.end)).toBe(CELL.trimEnd())
   })
 })
+
+describe('regressions found by the fuzz run', () => {
+  it('a concentration planned for a gas (not a target) is reported, not a crash of the simulated yields', () => {
+    // Found by `npm run fuzz` (shrunk by hand): hydrogen is the simulated main product here, and
+    // `0.5 mol/L` is a concentration, which a gas cannot be planned as; the analysis threw.
+    const text = [
+      'cell',
+      '  compartment bath 1 L',
+      '  anode nickel in bath',
+      '  cathode nickel in bath',
+      'charge bath: KOH 56 g, water 1 L',
+      'step 1: current 1 A for 1 h',
+      'expect H2 0.5 mol/L in bath',
+      'handling vent: hydrogen piped outdoors',
+      '',
+    ].join('\n')
+    const a = analyze(text)
+    expect(a.model.simulation?.mainProduct?.formula).toBe('H2')
+    const wrong = a.diagnostics.filter((d) => d.code === 'wrong-unit')
+    expect(wrong.map((d) => a.index.lineOf(d.span.start))).toEqual([6])
+    expect(a.computed.some((c) => c.key === 'expect.target')).toBe(false)
+  })
+})

@@ -1174,7 +1174,10 @@ class Evaluator {
       const node = m.tree.lines[y.line]
       const q = y.quantity
       if (q.kind === 'mass-fraction' || q.kind === 'molarity') {
-        const target = targetAt.get(y.line)!
+        // A concentration is a target only where one may be planned (in a named compartment, for
+        // what is not a gas); elsewhere wrong-unit reports it and the simulation has nothing to add.
+        const target = targetAt.get(y.line)
+        if (!target) continue
         const reached = sim.events.find((e) => e.kind === 'target-reached' && e.line >= 0 && e.message.includes(`${target.value} ${target.kind}`) && e.compartment === target.compartment)
         const end = sim.final.find((c) => c.name === target.compartment)?.main
         const endValue = end ? (target.kind === 'wt%' ? end.wtPercent : end.molPerL) : undefined
