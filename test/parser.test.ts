@@ -2,7 +2,7 @@
 // nodes without stopping the parse.
 import fc from 'fast-check'
 import { describe, expect, it } from 'vitest'
-import { commentStart, isTrimSpace, parse } from '../server/src/core/parser'
+import { commentStart, isTrimSpace, parse, wordAt } from '../server/src/core/parser'
 import type { LineNode } from '../server/src/core/syntax'
 import { covered, marked } from './support/markers'
 
@@ -209,5 +209,22 @@ describe('white space trimmed around statement parts', () => {
       if (trimmed !== isTrimSpace(c)) differ.push(c)
     }
     expect(differ).toEqual([])
+  })
+})
+
+describe('clause words found in place', () => {
+  it('where `(?:current|voltage|for|efficiency)(?![\\w-])` matches, at any place of any text', () => {
+    // The oracle is the pattern the parser ran before (sticky, at the place).
+    const words = ['current', 'voltage', 'for', 'efficiency'] as const
+    const pattern = new RegExp(`(?:${words.join('|')})(?![\\w-])`, 'y')
+    const text = fc.array(fc.constantFrom('for', 'form', 'current', 'currents', 'efficiency', 'volt', 'voltage', '-', '_', ' ', '2', 'x', 'é', 'fo'), { maxLength: 6 }).map((p) => p.join(''))
+    fc.assert(
+      fc.property(text, fc.nat({ max: 20 }), (t, at) => {
+        const i = Math.min(at, t.length)
+        pattern.lastIndex = i
+        expect(wordAt(t, i, words), `${JSON.stringify(t)} at ${i}`).toBe(pattern.test(t))
+      }),
+      { numRuns: 4000, seed: 53 },
+    )
   })
 })

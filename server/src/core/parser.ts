@@ -170,14 +170,6 @@ function standaloneWord(word: string): RegExp {
   return re
 }
 
-const wordLists = new Map<readonly string[], RegExp>()
-/** One of `words`, whole, exactly at lastIndex (flag y). */
-function wordsAt(words: readonly string[]): RegExp {
-  let re = wordLists.get(words)
-  if (!re) wordLists.set(words, (re = new RegExp(`(?:${words.join('|')})(?![\\w-])`, 'y')))
-  return re
-}
-
 /** Where the comment starts (`#` outside double quotes), or -1. */
 export function commentStart(s: string): number {
   // Most lines have no `#`, or none after a quote: found by two native searches.
@@ -541,18 +533,35 @@ function splitWords(t: Tok, words: readonly string[]): Tok[] {
   const out: Tok[] = []
   let depth = 0
   let from = 0
-  const re = wordsAt(words)
-  for (let i = 0; i < t.text.length; i++) {
-    const c = t.text[i]
-    if (c === '(' || c === '[') depth++
-    else if (c === ')' || c === ']') depth--
-    else if (depth === 0 && i > from && isSpace(t.text, i - 1) && ((re.lastIndex = i), re.test(t.text))) {
-      out.push(trimTok(t, from, i))
+  const s = t.text
+  for (let i = 0; i < s.length; i++) {
+    const c = s.charCodeAt(i)
+    if (c === 40 /* ( */ || c === 91 /* [ */) depth++
+    else if (c === 41 /* ) */ || c === 93 /* ] */) depth--
+    else if (depth === 0 && i > from && isSpace(s, i - 1) && wordAt(s, i, words)) {
+      const part = trimTok(t, from, i)
+      if (part.text.length > 0) out.push(part)
       from = i
     }
   }
-  out.push(trimTok(t, from, t.text.length))
-  return out.filter((p) => p.text.length > 0)
+  const last = trimTok(t, from, s.length)
+  if (last.text.length > 0) out.push(last)
+  return out
+}
+
+/**
+ * Whether one of `words` stands whole at `i` (`(?:w1|w2|...)(?![\w-])` matched there): read by
+ * comparing in place, without running a pattern for every space of a step line. A test checks it
+ * against that pattern.
+ */
+export function wordAt(s: string, i: number, words: readonly string[]): boolean {
+  for (const w of words) {
+    if (!s.startsWith(w, i)) continue
+    const c = s.charCodeAt(i + w.length)
+    const wordChar = c === 95 || c === 45 || (c >= 48 && c <= 57) || (c >= 65 && c <= 90) || (c >= 97 && c <= 122)
+    if (!wordChar) return true
+  }
+  return false
 }
 
 function trimTok(t: Tok, from: number, to: number): Tok {
