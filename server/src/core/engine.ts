@@ -470,12 +470,12 @@ function bookkeep(input: EngineInput, r: EngineResult, full: boolean): Book {
   const crossingAnion = (side: Ions) => mostPlentiful(side.anions, (n) => n === 'OH')
   // What a product is (all but its amount) is the same on every step: made once per bookkeeping and
   // shared by the steps' ledgers, not written again (with its equation and reason) for each step.
-  const described = new Map<string, Omit<Product, 'mol' | 'mol100'>>()
-  const described1 = (k: string, make: () => Omit<Product, 'mol' | 'mol100'>) => {
-    let d = described.get(k)
-    if (!d) described.set(k, (d = make()))
-    return d
-  }
+  type Described = Omit<Product, 'mol' | 'mol100'>
+  const hydrogenAfter = new Map<string, Described>()
+  const oxygenAfter = new Map<string, Described>()
+  const hydroxideOf = new Map<string, Map<number, Described>>()
+  let hydrogenAtCathode: Described | undefined
+  let oxygenAtAnode: Described | undefined
   for (const s of input.steps) {
     // At 100 % (full) only the totals are used: no ledger per step.
     const ledger = full ? undefined : new Ledger(key)
@@ -490,16 +490,16 @@ function bookkeep(input: EngineInput, r: EngineResult, full: boolean): Book {
     }
     const ne = s.chargeC / FARADAY
     /** Hydrogen (cathode) or oxygen (anode) from water takes the electrons the main reaction leaves. */
-    const sideHydrogen = (electrons: number, main: string) =>
-      put(
-        described1(`H2 after ${main}`, () => ({ formula: 'H2', electrons: 2, compartment: c, origin: 'cathode', gas: true, equation: '2 H₂O + 2 e⁻ → H₂ + 2 OH⁻', reason: `hydrogen takes the current ${main} leaves` })),
-        electrons / 2,
-      )
-    const sideOxygen = (electrons: number, main: string) =>
-      put(
-        described1(`O2 after ${main}`, () => ({ formula: 'O2', electrons: 4, compartment: a, origin: 'anode', gas: true, equation: '2 H₂O → O₂ + 4 H⁺ + 4 e⁻', reason: `oxygen takes the current ${main} leaves` })),
-        electrons / 4,
-      )
+    const sideHydrogen = (electrons: number, main: string) => {
+      let d = hydrogenAfter.get(main)
+      if (!d) hydrogenAfter.set(main, (d = { formula: 'H2', electrons: 2, compartment: c, origin: 'cathode', gas: true, equation: '2 H₂O + 2 e⁻ → H₂ + 2 OH⁻', reason: `hydrogen takes the current ${main} leaves` }))
+      put(d, electrons / 2)
+    }
+    const sideOxygen = (electrons: number, main: string) => {
+      let d = oxygenAfter.get(main)
+      if (!d) oxygenAfter.set(main, (d = { formula: 'O2', electrons: 4, compartment: a, origin: 'anode', gas: true, equation: '2 H₂O → O₂ + 4 H⁺ + 4 e⁻', reason: `oxygen takes the current ${main} leaves` }))
+      put(d, electrons / 4)
+    }
     const eta = full ? 1 : Math.min(1, Math.max(0, s.efficiency))
     // --- cathode
     let hydroxide = 0 // mol OH⁻ made at the cathode
@@ -522,7 +522,8 @@ function bookkeep(input: EngineInput, r: EngineResult, full: boolean): Book {
       sideHydrogen(ne - used, 'the stated reaction')
       hydroxide = used * cathode.statedIons! + (ne - used)
     } else {
-      put(described1('H2 at the cathode', () => ({ formula: 'H2', electrons: 2, compartment: c, origin: 'cathode', gas: true, equation: cathode.equation, reason: cathode.reason })), ne / 2)
+      hydrogenAtCathode ??= { formula: 'H2', electrons: 2, compartment: c, origin: 'cathode', gas: true, equation: cathode.equation, reason: cathode.reason }
+      put(hydrogenAtCathode, ne / 2)
       if (cathode.form === 'acid') protonsUsed = ne
       else hydroxide = ne
     }
@@ -554,7 +555,8 @@ function bookkeep(input: EngineInput, r: EngineResult, full: boolean): Book {
       sideOxygen(ne - used, 'the stated reaction')
       protons = used * anode.statedIons! + (ne - used)
     } else {
-      put(described1('O2 at the anode', () => ({ formula: 'O2', electrons: 4, compartment: a, origin: 'anode', gas: true, equation: anode.equation, reason: anode.reason })), ne / 4)
+      oxygenAtAnode ??= { formula: 'O2', electrons: 4, compartment: a, origin: 'anode', gas: true, equation: anode.equation, reason: anode.reason }
+      put(oxygenAtAnode, ne / 4)
       protons = ne
     }
     // --- what the separator carries, and what pairs up in each compartment
@@ -587,8 +589,11 @@ function bookkeep(input: EngineInput, r: EngineResult, full: boolean): Book {
           v.mol -= moved
           if (moved * v.charge < carried - 1e-15) notes.push(`${el}${sup(v.charge)} in ${a} ran out; protons carry the rest of the current and the hydroxide stops growing`)
           const formed = Math.min(moved, hydroxide / v.charge)
-          put(
-            described1(`hydroxide of ${el} ${v.charge}`, () => ({
+          let byCharge = hydroxideOf.get(el)
+          if (!byCharge) hydroxideOf.set(el, (byCharge = new Map()))
+          let d = byCharge.get(v.charge)
+          if (!d) {
+            d = {
               formula: hydroxideFormula(el, v.charge),
               electrons: v.charge,
               compartment: c,
@@ -596,9 +601,10 @@ function bookkeep(input: EngineInput, r: EngineResult, full: boolean): Book {
               gas: false,
               equation: `${el}${sup(v.charge)} (through the separator) + ${v.charge === 1 ? '' : v.charge + ' '}OH⁻ → ${hydroxideFormula(el, v.charge)}`,
               reason: `${el}${sup(v.charge)} crosses the cation-exchange separator from ${a} and pairs with the hydroxide made at the cathode`,
-            })),
-            formed,
-          )
+            }
+            byCharge.set(v.charge, d)
+          }
+          put(d, formed)
         }
         // The charge not carried by the crossing cations is carried by protons from the anode side;
         // the protons that stay behind acidify it.
