@@ -419,12 +419,21 @@ export const NAME_AT = /[A-Za-z_][A-Za-z0-9_]*/y
 export const INTEGER_AT = /\d+/y
 /** Words mathjs's parser reads as constants or operators, not as names. */
 const PARSER_WORDS = new Set(['true', 'false', 'null', 'undefined', 'NaN', 'Infinity', 'mod', 'to', 'in', 'and', 'or', 'xor', 'not', 'end'])
-type NodeClasses = {
-  ConstantNode: new (v: number) => MathNode
-  SymbolNode: new (name: string) => MathNode
-  OperatorNode: new (op: string, fn: string, args: MathNode[], implicit?: boolean, isPercentage?: boolean) => MathNode
+/**
+ * The nodes simpleTree builds: plain objects with the fields of mathjs's ConstantNode, SymbolNode
+ * and OperatorNode that Cellrun reads (evalNode and the checks in compile), made without mathjs's
+ * node classes, whose constructors check their arguments (most of the cost of building a tree).
+ * They are never handed to mathjs. The test compares them field by field with the parser's nodes.
+ */
+function constNode(value: number): MathNode {
+  return { type: 'ConstantNode', value } as unknown as MathNode
 }
-const nodes = math as unknown as NodeClasses
+function symbolNode(name: string): MathNode {
+  return { type: 'SymbolNode', name } as unknown as MathNode
+}
+function operatorNode(op: string, fn: string, args: MathNode[], implicit = false, isPercentage = false): MathNode {
+  return { type: 'OperatorNode', op, fn, args, implicit, isPercentage } as unknown as MathNode
+}
 
 export function simpleTree(t: string, symbols?: { name: string; at: number }[]): MathNode | undefined {
   const n = t.length
@@ -449,7 +458,7 @@ export function simpleTree(t: string, symbols?: { name: string; at: number }[]):
   }
   // NAME, then an optional `^ EXP`.
   const powered = (w: string): MathNode | undefined => {
-    const sym = new nodes.SymbolNode(w)
+    const sym = symbolNode(w)
     // Each name where it stands (the name was just read), in the order a walk of the tree meets them.
     symbols?.push({ name: w, at: i - w.length })
     const back = i
@@ -471,14 +480,14 @@ export function simpleTree(t: string, symbols?: { name: string; at: number }[]):
     skip()
     if (t.charCodeAt(i) === 94) return undefined
     i = save
-    const exp: MathNode = new nodes.ConstantNode(Number(digits))
-    const e = sign === '' ? exp : new nodes.OperatorNode(sign, sign === '-' ? 'unaryMinus' : 'unaryPlus', [exp], false)
-    return new nodes.OperatorNode('^', 'pow', [sym, e], false)
+    const exp: MathNode = constNode(Number(digits))
+    const e = sign === '' ? exp : operatorNode(sign, sign === '-' ? 'unaryMinus' : 'unaryPlus', [exp], false)
+    return operatorNode('^', 'pow', [sym, e], false)
   }
   // An operand after an operator: NUMBER, NAME or NAME^EXP.
   const operand = (): MathNode | undefined => {
     const num = at(NUMBER_AT)
-    if (num !== undefined) return nameStartsAt(t, i) ? undefined : new nodes.ConstantNode(Number(num))
+    if (num !== undefined) return nameStartsAt(t, i) ? undefined : constNode(Number(num))
     const w = name()
     return w ? powered(w) : undefined
   }
@@ -487,19 +496,19 @@ export function simpleTree(t: string, symbols?: { name: string; at: number }[]):
   const num = at(NUMBER_AT)
   if (num !== undefined) {
     if (nameStartsAt(t, i)) return undefined
-    const value = new nodes.ConstantNode(Number(num))
+    const value = constNode(Number(num))
     const gap = skip()
     if (t.charCodeAt(i) === 37 /* % */) {
       i++
       skip()
-      return i === n ? new nodes.OperatorNode('/', 'divide', [value, new nodes.ConstantNode(100)], false, true) : undefined
+      return i === n ? operatorNode('/', 'divide', [value, constNode(100)], false, true) : undefined
     }
     if (gap > 0 && nameStartsAt(t, i)) {
       const w = name()
       if (!w) return undefined
       const unit = powered(w)
       if (!unit) return undefined
-      left = new nodes.OperatorNode('*', 'multiply', [value, unit], true)
+      left = operatorNode('*', 'multiply', [value, unit], true)
     } else left = value
   } else {
     const w = name()
@@ -516,7 +525,7 @@ export function simpleTree(t: string, symbols?: { name: string; at: number }[]):
     skip()
     const right = operand()
     if (!right) return undefined
-    left = c === 42 ? new nodes.OperatorNode('*', 'multiply', [left, right], false) : new nodes.OperatorNode('/', 'divide', [left, right], false)
+    left = c === 42 ? operatorNode('*', 'multiply', [left, right], false) : operatorNode('/', 'divide', [left, right], false)
   }
 }
 
@@ -1133,7 +1142,7 @@ export const sandbox = {
   },
   /** What compile() finds an expression reads, with and without its shortcut for the commonest shapes. */
   compiledNames(text: string): { shortcut: unknown; walked: unknown } {
-    const view = (c: CompileResult) => (c.ok ? { names: c.names, unitSymbols: c.unitSymbols, tree: c.tree.toString() } : { failure: c.failure })
+    const view = (c: CompileResult) => (c.ok ? { names: c.names, unitSymbols: c.unitSymbols, tree: JSON.stringify(c.tree, (k, v) => (k === 'comment' ? undefined : v)) } : { failure: c.failure })
     return { shortcut: view(compile(text)), walked: view(compile(text, false)) }
   },
   /** mathjs's parser, to check simpleTree against. */
