@@ -218,7 +218,8 @@ function parseLine(raw: string, base: number, line: number, inCell: boolean): Li
   const kwMatch = kwEnd > indent
   const kwText = kwMatch ? knownKeyword(content, indent, kwEnd) ?? content.slice(indent, kwEnd) : ''
   const keyword: Tok = { text: kwText, span: { start: base + indent, end: base + indent + kwText.length } }
-  const s = new Cursor(content, base, indent + kwText.length)
+  // One cursor serves every line (parsing is not re-entrant): no object per line.
+  const s = CURSOR.reset(content, base, indent + kwText.length)
   try {
     // Cost bound: a statement that is evaluated (amounts, charges, steps, reactions), or one whose
     // keyword is not known, is read only up to this length; free text (a note, a title, a handling
@@ -585,10 +586,17 @@ export function isTrimSpace(c: number): boolean {
 /** A reading position in one line's content. Offsets in errors are relative to the line start. */
 class Cursor {
   constructor(
-    readonly s: string,
-    readonly base: number,
+    public s: string,
+    public base: number,
     public pos: number,
   ) {}
+
+  reset(s: string, base: number, pos: number): this {
+    this.s = s
+    this.base = base
+    this.pos = pos
+    return this
+  }
 
   tok(from: number, to: number): Tok {
     return { text: this.s.slice(from, to), span: { start: this.base + from, end: this.base + to } }
@@ -764,3 +772,5 @@ class Cursor {
     return out
   }
 }
+
+const CURSOR = new Cursor('', 0, 0)
