@@ -22,17 +22,26 @@ export function litresPerMol(model: Model): number {
 
 /** The step in which a gas comes off fastest, and that rate in L/h at the run's conditions; undefined when none does. */
 export function peakGasStep(model: Model, formula: string): { lph: number; label: string } | undefined {
+  // Asked by more than one rule: worked out once per model and gas.
+  let byGas = peaks.get(model)
+  if (!byGas) peaks.set(model, (byGas = new Map()))
+  if (byGas.has(formula)) return byGas.get(formula)
   let best: { lph: number; label: string } | undefined
   const stepAt = new Map(model.steps.map((s) => [s.line, s]))
+  const Vm = litresPerMol(model)
   for (const sp of model.engine?.steps ?? []) {
     const step = stepAt.get(sp.line)
     if (!step?.seconds) continue
-    const mol = sp.products.filter((p) => p.formula === formula).reduce((t, p) => t + p.mol, 0)
-    const lph = (mol * litresPerMol(model)) / (step.seconds / 3600)
+    let mol = 0
+    for (const p of sp.products) if (p.formula === formula) mol += p.mol
+    const lph = (mol * Vm) / (step.seconds / 3600)
     if (lph > 0 && (!best || lph > best.lph)) best = { lph, label: step.label }
   }
+  byGas.set(formula, best)
   return best
 }
+
+const peaks = new WeakMap<Model, Map<string, { lph: number; label: string } | undefined>>()
 
 /** The highest rate at which a gas comes off in any step, L/h at the run's conditions (0 when none). */
 export function peakGasRate(model: Model, formula: string): number {
