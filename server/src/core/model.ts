@@ -1323,6 +1323,14 @@ class Evaluator {
     }
   }
 
+  /** The reaction that forms a product, as yields show it: one object per product, shared by its yield lines (read-only). */
+  private reactionOf(p: Product): NonNullable<YieldFact['reaction']> {
+    let r = this.reactions.get(p)
+    if (!r) this.reactions.set(p, (r = { equation: p.equation, reason: p.reason, compartment: p.compartment, gas: p.gas, electrons: p.electrons }))
+    return r
+  }
+  private readonly reactions = new Map<Product, NonNullable<YieldFact['reaction']>>()
+
   private litresPerMol(): number {
     return ((GAS_CONSTANT * this.m.temperatureK) / this.m.pressurePa) * 1000
   }
@@ -1401,7 +1409,7 @@ class Evaluator {
           here = formed
         }
       }
-      y.reaction = { equation: here[0].equation, reason: here[0].reason, compartment: here[0].compartment, gas: here[0].gas, electrons: here[0].electrons }
+      y.reaction = this.reactionOf(here[0])
       y.maxMolEff = here.reduce((t, p) => t + p.mol, 0)
       // Current efficiency is measured against Faraday's law for the whole charge (n(e⁻)/z),
       // whatever the feed allowed.
