@@ -497,11 +497,14 @@ function parseClauses(s: Cursor): Clause[] {
   for (const piece of s.splitTop(',', body)) {
     // A clause word may follow another clause without a comma: `current 2 A for 3 h`.
     for (const part of splitWords(piece, STEP_CLAUSES)) {
-      const m = /^([A-Za-z][A-Za-z-]*)(\s*)(.*)$/s.exec(part.text)
-      const word = m ? m[1] : part.text.split(/\s/)[0]
+      // `WORD VALUE`: the word as `[A-Za-z][A-Za-z-]*`, then white space, then the value, read by
+      // index (the pattern `^([A-Za-z][A-Za-z-]*)(\s*)(.*)$` before).
+      const text = part.text
+      const kwEnd = keywordEnd(text, 0)
       // The clause word as the one shared string (the model compares it on every step).
-      const known = m ? STEP_CLAUSES.find((c) => c === m[1]) : undefined
-      if (!m || !known) {
+      const known = kwEnd > 0 ? STEP_CLAUSES.find((c) => c.length === kwEnd && text.startsWith(c)) : undefined
+      if (!known) {
+        const word = kwEnd > 0 ? text.slice(0, kwEnd) : text.split(/\s/)[0]
         const guess = closest(word, STEP_CLAUSES)
         const at = part.span.start - s.base
         throw new LineError(
@@ -512,15 +515,18 @@ function parseClauses(s: Cursor): Clause[] {
         )
       }
       const kwTok: Tok = { text: known, span: { start: part.span.start, end: part.span.start + known.length } }
-      const exprStart = part.span.start + m[1].length + m[2].length
-      if (m[3].trim() === '') {
-        throw new LineError(`\`${m[1]}\` needs a value`, kwTok.span.start - s.base, kwTok.span.end - s.base)
+      let valueAt = kwEnd
+      while (valueAt < text.length && isSpace(text, valueAt)) valueAt++
+      const exprStart = part.span.start + valueAt
+      if (valueAt === text.length) {
+        throw new LineError(`\`${known}\` needs a value`, kwTok.span.start - s.base, kwTok.span.end - s.base)
       }
-      const on = m[1] === 'current' ? /\s+on\s+(anode|cathode|separator)$/.exec(m[3]) : null
-      const exprText = on ? m[3].slice(0, on.index) : m[3]
+      const value = text.slice(valueAt)
+      const on = known === 'current' ? /\s+on\s+(anode|cathode|separator)$/.exec(value) : null
+      const exprText = on ? value.slice(0, on.index) : value
       const clause: Clause = { span: part.span, keyword: kwTok, expr: { text: exprText, span: { start: exprStart, end: exprStart + exprText.length } } }
       if (on) {
-        const onStart = exprStart + m[3].length - on[1].length
+        const onStart = exprStart + value.length - on[1].length
         clause.on = { text: on[1], span: { start: onStart, end: onStart + on[1].length } }
       }
       clauses.push(clause)
