@@ -436,94 +436,118 @@ function operatorNode(op: string, fn: string, args: MathNode[], implicit = false
 }
 
 export function simpleTree(t: string, symbols?: { name: string; at: number }[]): MathNode | undefined {
-  const n = t.length
-  let i = 0
-  const skip = (): number => {
-    const from = i
-    for (let c = t.charCodeAt(i); c === 32 || c === 9 || c === 0xa0; c = t.charCodeAt(++i));
-    return i - from
+  // The reader's state is kept at module level (reset here; simpleTree never calls itself), so that
+  // reading an expression makes no closures.
+  rt = t
+  ri = 0
+  rsymbols = symbols
+  try {
+    return readSimple()
+  } finally {
+    rt = ''
+    rsymbols = undefined
   }
-  // The token at `i` (as the pattern reads it), found by a scan: no match array per token.
-  const at = (re: RegExp): string | undefined => {
-    const end = re === NAME_AT ? nameEnd(t, i) : re === INTEGER_AT ? digitsEnd(t, i) : numberEnd(t, i)
-    if (end === i) return undefined
-    const token = t.slice(i, end)
-    i = end
-    return token
+}
+
+let rt = ''
+let ri = 0
+let rsymbols: { name: string; at: number }[] | undefined
+
+/** White space the parser skips, from `ri`; how much. */
+function rSkip(): number {
+  const from = ri
+  for (let c = rt.charCodeAt(ri); c === 32 || c === 9 || c === 0xa0; c = rt.charCodeAt(++ri));
+  return ri - from
+}
+
+/** The token at `ri` as the pattern reads it, found by a scan (no match array per token). */
+function rAt(re: RegExp): string | undefined {
+  const end = re === NAME_AT ? nameEnd(rt, ri) : re === INTEGER_AT ? digitsEnd(rt, ri) : numberEnd(rt, ri)
+  if (end === ri) return undefined
+  const token = rt.slice(ri, end)
+  ri = end
+  return token
+}
+
+/** A name at `ri`; null for a word the parser reads as a keyword or operator. */
+function rName(): string | null | undefined {
+  const w = rAt(NAME_AT)
+  return w === undefined ? undefined : PARSER_WORDS.has(w) ? null : w
+}
+
+/** The name just read, then an optional `^ EXP`. */
+function rPowered(w: string): MathNode | undefined {
+  const sym = symbolNode(w)
+  // Each name where it stands (the name was just read), in the order a walk of the tree meets them.
+  rsymbols?.push({ name: w, at: ri - w.length })
+  const back = ri
+  rSkip()
+  if (rt.charCodeAt(ri) !== 94 /* ^ */) {
+    ri = back
+    return sym
   }
-  const name = (): string | null | undefined => {
-    const w = at(NAME_AT)
-    // A number may not run into a name (`2e`, `3kg`): the parser reads those its own way.
-    return w === undefined ? undefined : PARSER_WORDS.has(w) ? null : w
-  }
-  // NAME, then an optional `^ EXP`.
-  const powered = (w: string): MathNode | undefined => {
-    const sym = symbolNode(w)
-    // Each name where it stands (the name was just read), in the order a walk of the tree meets them.
-    symbols?.push({ name: w, at: i - w.length })
-    const back = i
-    skip()
-    if (t.charCodeAt(i) !== 94 /* ^ */) {
-      i = back
-      return sym
-    }
-    i++
-    skip()
-    const sign = t.charCodeAt(i) === 45 /* - */ ? '-' : t.charCodeAt(i) === 43 /* + */ ? '+' : ''
-    if (sign) i++
-    const digits = at(INTEGER_AT)
-    if (digits === undefined) return undefined
-    // A number that goes on (`2.5`, `2e3`) or a second power (`cm^2^2`) is the parser's.
-    const c = t.charCodeAt(i)
-    if (c === 46 || c === 101 || c === 69 || (c >= 48 && c <= 57) || c === 95 || (c >= 65 && c <= 90) || (c >= 97 && c <= 122)) return undefined
-    const save = i
-    skip()
-    if (t.charCodeAt(i) === 94) return undefined
-    i = save
-    const exp: MathNode = constNode(Number(digits))
-    const e = sign === '' ? exp : operatorNode(sign, sign === '-' ? 'unaryMinus' : 'unaryPlus', [exp], false)
-    return operatorNode('^', 'pow', [sym, e], false)
-  }
-  // An operand after an operator: NUMBER, NAME or NAME^EXP.
-  const operand = (): MathNode | undefined => {
-    const num = at(NUMBER_AT)
-    if (num !== undefined) return nameStartsAt(t, i) ? undefined : constNode(Number(num))
-    const w = name()
-    return w ? powered(w) : undefined
-  }
-  skip()
+  ri++
+  rSkip()
+  const sign = rt.charCodeAt(ri) === 45 /* - */ ? '-' : rt.charCodeAt(ri) === 43 /* + */ ? '+' : ''
+  if (sign) ri++
+  const digits = rAt(INTEGER_AT)
+  if (digits === undefined) return undefined
+  // A number that goes on (`2.5`, `2e3`) or a second power (`cm^2^2`) is the parser's.
+  const c = rt.charCodeAt(ri)
+  if (c === 46 || c === 101 || c === 69 || (c >= 48 && c <= 57) || c === 95 || (c >= 65 && c <= 90) || (c >= 97 && c <= 122)) return undefined
+  const save = ri
+  rSkip()
+  if (rt.charCodeAt(ri) === 94) return undefined
+  ri = save
+  const exp: MathNode = constNode(Number(digits))
+  const e = sign === '' ? exp : operatorNode(sign, sign === '-' ? 'unaryMinus' : 'unaryPlus', [exp], false)
+  return operatorNode('^', 'pow', [sym, e], false)
+}
+
+/** An operand after an operator: NUMBER, NAME or NAME^EXP. */
+function rOperand(): MathNode | undefined {
+  const num = rAt(NUMBER_AT)
+  if (num !== undefined) return nameStartsAt(rt, ri) ? undefined : constNode(Number(num))
+  const w = rName()
+  return w ? rPowered(w) : undefined
+}
+
+function readSimple(): MathNode | undefined {
+  const n = rt.length
+  rSkip()
   let left: MathNode | undefined
-  const num = at(NUMBER_AT)
+  const num = rAt(NUMBER_AT)
   if (num !== undefined) {
-    if (nameStartsAt(t, i)) return undefined
+    // A number may not run into a name (`2e`, `3kg`): the parser reads those its own way.
+    if (nameStartsAt(rt, ri)) return undefined
     const value = constNode(Number(num))
-    const gap = skip()
-    if (t.charCodeAt(i) === 37 /* % */) {
-      i++
-      skip()
-      return i === n ? operatorNode('/', 'divide', [value, constNode(100)], false, true) : undefined
+    const gap = rSkip()
+    if (rt.charCodeAt(ri) === 37 /* % */) {
+      ri++
+      rSkip()
+      return ri === n ? operatorNode('/', 'divide', [value, constNode(100)], false, true) : undefined
     }
-    if (gap > 0 && nameStartsAt(t, i)) {
-      const w = name()
+    if (gap > 0 && nameStartsAt(rt, ri)) {
+      const w = rName()
       if (!w) return undefined
-      const unit = powered(w)
+      const unit = rPowered(w)
       if (!unit) return undefined
       left = operatorNode('*', 'multiply', [value, unit], true)
     } else left = value
   } else {
-    const w = name()
+    const w = rName()
     if (!w) return undefined
-    left = powered(w)
+    left = rPowered(w)
     if (!left) return undefined
   }
   for (;;) {
-    skip()
-    if (i === n) return left
-    const c = t.charCodeAt(i)
+    rSkip()
+    if (ri === n) return left
+    const c = rt.charCodeAt(ri)
     if (c !== 42 /* * */ && c !== 47 /* / */) return undefined
-    i++
-    skip()
-    const right = operand()
+    ri++
+    rSkip()
+    const right = rOperand()
     if (!right) return undefined
     left = c === 42 ? operatorNode('*', 'multiply', [left, right], false) : operatorNode('/', 'divide', [left, right], false)
   }
