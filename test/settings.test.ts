@@ -49,6 +49,7 @@ describe('settings', () => {
     const a = analyze(PROTOCOL, { significantFigures: NaN, gasUnit: 'mL' })
     const products = a.computed.find((c) => c.key === 'step.products')!.label
     expect(products).toMatch(/\d mL H₂/)
+    // 1 A × 1 h = 3600 C; n(e⁻) = 3600 / 96485.33212 = 0.0373 mol at 3 figures (CODATA 2018 F)
     expect(a.computed.find((c) => c.key === 'step.charge')!.label).toContain('0.0373 mol e⁻')
   })
 
