@@ -2,7 +2,8 @@
 // nodes without stopping the parse.
 import fc from 'fast-check'
 import { describe, expect, it } from 'vitest'
-import { commentStart, isTrimSpace, parse, wordAt } from '../server/src/core/parser'
+import { commentStart, parse, wordAt } from '../server/src/core/parser'
+import { isWhiteSpace } from '../server/src/core/text'
 import type { LineNode } from '../server/src/core/syntax'
 import { covered, marked } from './support/markers'
 
@@ -199,14 +200,15 @@ describe('where a comment starts', () => {
   })
 })
 
-describe('white space trimmed around statement parts', () => {
-  it('is what String.prototype.trim removes, for every UTF-16 code unit', () => {
-    // The oracle is the JavaScript engine's own trim().
+describe('white space', () => {
+  it('is what `\\s` matches and what String.prototype.trim removes, for every UTF-16 code unit', () => {
+    // The oracles are the JavaScript engine's own pattern and trim().
     const differ: number[] = []
     for (let c = 0; c < 0x10000; c++) {
       const ch = String.fromCharCode(c)
       const trimmed = ch !== 'x' && `${ch}x${ch}`.trim() === 'x'
-      if (trimmed !== isTrimSpace(c)) differ.push(c)
+      const pattern = /\s/.test(ch)
+      if (trimmed !== isWhiteSpace(c) || pattern !== isWhiteSpace(c)) differ.push(c)
     }
     expect(differ).toEqual([])
   })

@@ -11,7 +11,7 @@ import {
   type SyntaxTree,
   type Tok,
 } from './syntax'
-import { closest } from './text'
+import { closest, isWhiteSpace } from './text'
 
 export function parse(text: string, index = new LineIndex(text)): SyntaxTree {
   const lines: LineNode[] = []
@@ -155,11 +155,9 @@ function knownKeyword(s: string, from: number, to: number): string | undefined {
   return undefined
 }
 
-/** White space at `i`, as `\s` in a pattern reads it (ASCII first, the rest by the pattern). */
+/** White space at `i`, as `\s` in a pattern reads it. */
 function isSpace(s: string, i: number): boolean {
-  const c = s.charCodeAt(i)
-  if (c === 32 || (c >= 9 && c <= 13)) return true
-  return c > 127 && /\s/.test(s[i])
+  return isWhiteSpace(s.charCodeAt(i))
 }
 
 const standaloneWords = new Map<string, RegExp>()
@@ -575,18 +573,11 @@ function trimTok(t: Tok, from: number, to: number): Tok {
   // White space as trim() reads it, found by index: one copy of the trimmed text, not three.
   const s = t.text
   let a = from
-  while (a < to && isTrimSpace(s.charCodeAt(a))) a++
+  while (a < to && isWhiteSpace(s.charCodeAt(a))) a++
   let b = to
-  while (b > a && isTrimSpace(s.charCodeAt(b - 1))) b--
+  while (b > a && isWhiteSpace(s.charCodeAt(b - 1))) b--
   const start = t.span.start + a
   return { text: s.slice(a, b), span: { start, end: start + (b - a) } }
-}
-
-/** What String.prototype.trim removes: white space and line terminators (ECMAScript WhiteSpace, LineTerminator). */
-export function isTrimSpace(c: number): boolean {
-  if (c <= 32) return c === 32 || (c >= 9 && c <= 13)
-  if (c < 0xa0) return false
-  return c === 0xa0 || c === 0x1680 || (c >= 0x2000 && c <= 0x200a) || c === 0x2028 || c === 0x2029 || c === 0x202f || c === 0x205f || c === 0x3000 || c === 0xfeff
 }
 
 /** A reading position in one line's content. Offsets in errors are relative to the line start. */

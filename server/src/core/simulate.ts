@@ -597,7 +597,7 @@ export function simulate(input: SimInput): SimResult {
   const sep = input.separator?.type
 
   // Initial amounts for exhaustion events.
-  const feedCations = divided && sep !== 'anion-exchange' ? sumWhere(a, (k) => species(k).charge > 0 && k !== 'H^+') : 0
+  const feedCations = divided && sep !== 'anion-exchange' ? cationCharge(a, false) : 0
   const depIon = input.cathode.kind === 'deposition' ? ionKey(input.cathode.metal!.element, input.cathode.metal!.charge) : undefined
   const depInitial = depIon ? c.get(depIon) : 0
   const chlorideInitial = input.anode.kind === 'chlorine' ? a.get('Cl^-') : 0
@@ -667,7 +667,7 @@ export function simulate(input: SimInput): SimResult {
           state.T = Math.min(state.T, 373.15)
         }
         // Events.
-        if (feedCations > 0 && sumWhere(a, (k) => species(k).charge > 0 && k !== 'H^+') < 0.01 * feedCations) {
+        if (feedCations > 0 && cationCharge(a, false) < 0.01 * feedCations) {
           event('feed-exhausted', 'feed', time, step.line, `the cations of ${a.name} are used up: protons carry the current from here on`, a.name)
         }
         if (depIon && depInitial > 0 && c.get(depIon) < 0.01 * depInitial) {
@@ -734,15 +734,6 @@ function point(time: number, state: State, main: ReturnType<typeof mainProductOf
   }
 }
 
-function sumWhere(s: Solution, pred: (k: string) => boolean): number {
-  let t = 0
-  for (const k of s.amt.keys()) {
-    const v = s.amt.get(k)!
-    if (k !== WATER && pred(k)) t += v * Math.abs(species(k).charge)
-  }
-  return t
-}
-
 /**
  * The smallest amount (mol) that the next step's reactions draw on, ignoring traces (below
  * `trace` mol), which may run out within one step without harm.
@@ -763,14 +754,13 @@ function reactingScale(input: SimInput, a: Solution, c: Solution, depIon: string
 
 const OXYGEN_SIDE_ANIONS = ['CO3^2-', 'HCO3^-', 'OH^-']
 
-/** The charge of the cations in a solution, mol (sumWhere over the cations, without a closure). */
-function cationCharge(s: Solution): number {
+/** The charge the cations of a solution carry, mol; with the protons or without them. */
+function cationCharge(s: Solution, protons = true): number {
   let t = 0
   for (const k of s.amt.keys()) {
-    const v = s.amt.get(k)!
-    if (k === WATER) continue
+    if (k === WATER || (!protons && k === 'H^+')) continue
     const z = species(k).charge
-    if (z > 0) t += v * Math.abs(z)
+    if (z > 0) t += s.amt.get(k)! * Math.abs(z)
   }
   return t
 }

@@ -1,5 +1,16 @@
 // Small text helpers shared by the parser and the rules.
 
+/**
+ * White space or a line terminator, as ECMAScript defines them: the code units `\s` matches in a
+ * pattern and String.prototype.trim removes (one set). A test checks it against both for every
+ * UTF-16 code unit.
+ */
+export function isWhiteSpace(c: number): boolean {
+  if (c <= 32) return c === 32 || (c >= 9 && c <= 13)
+  if (c < 0xa0) return false
+  return c === 0xa0 || c === 0x1680 || (c >= 0x2000 && c <= 0x200a) || c === 0x2028 || c === 0x2029 || c === 0x202f || c === 0x205f || c === 0x3000 || c === 0xfeff
+}
+
 /** Levenshtein distance, capped: returns `cap + 1` as soon as the distance must exceed `cap`. */
 export function editDistance(a: string, b: string, cap = 3): number {
   if (Math.abs(a.length - b.length) > cap) return cap + 1
