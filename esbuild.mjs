@@ -1,5 +1,7 @@
-// Builds the three bundles: the VS Code client, the language server and the CLI.
+// Builds the bundles: the VS Code client, the language server and the CLI (and their browser forms).
 // `node esbuild.mjs` builds once; `node esbuild.mjs --watch` rebuilds on change.
+// `node esbuild.mjs bench` or `node esbuild.mjs fuzz` builds only that developer tool (npm run bench,
+// npm run fuzz), with the same settings.
 import * as esbuild from 'esbuild'
 
 const watch = process.argv.includes('--watch')
@@ -19,8 +21,15 @@ const builds = [
   { ...common, platform: 'browser', format: 'cjs', target: 'es2022', entryPoints: ['client/src/browser.ts'], outfile: 'dist/browser/client.js', external: ['vscode'] },
   { ...common, platform: 'browser', format: 'iife', target: 'es2022', entryPoints: ['server/src/lsp/browser.ts'], outfile: 'dist/browser/server.js' },
 ]
+const tools = {
+  bench: { ...common, entryPoints: ['test/bench/bench.ts'], outfile: 'dist/bench.cjs' },
+  fuzz: { ...common, entryPoints: ['test/fuzz/run.ts'], outfile: 'dist/fuzz.cjs' },
+}
+const tool = process.argv.slice(2).find((a) => Object.hasOwn(tools, a))
 
-if (watch) {
+if (tool) {
+  await esbuild.build(tools[tool])
+} else if (watch) {
   for (const b of builds) await (await esbuild.context(b)).watch()
 } else {
   await Promise.all(builds.map((b) => esbuild.build(b)))

@@ -22,7 +22,7 @@ describe('the benchmark', () => {
 
   it('runs in its smoke mode and prints every table', () => {
     ensureBuilt()
-    execFileSync(process.execPath, [join(ROOT, 'test', 'bench', 'build.mjs')], { cwd: ROOT, stdio: 'pipe', timeout: 60_000 })
+    execFileSync(process.execPath, [join(ROOT, 'esbuild.mjs'), 'bench'], { cwd: ROOT, stdio: 'pipe', timeout: 60_000 })
     const out = execFileSync(process.execPath, ['--expose-gc', join(ROOT, 'dist', 'bench.cjs'), '--smoke'], { cwd: ROOT, encoding: 'utf8', timeout: 120_000 })
     expect(out).toMatch(/Whole-document analysis/)
     expect(out).toMatch(/^ +1000 +97 /m) // the 1,000-line row: 97 steps

@@ -6,7 +6,7 @@
 //   npm run fuzz -- --runs 5000 --seed 42     fewer, reproducibly
 //   npm run fuzz -- --seed 42 --path 17:3:0   replay a failure (the seed and path it printed)
 //
-// Bundled by test/fuzz/build.mjs to dist/fuzz.cjs. Exit 0: no failure; 1: a failure (the shrunk
+// Bundled by `node esbuild.mjs fuzz` to dist/fuzz.cjs. Exit 0: no failure; 1: a failure (the shrunk
 // counterexample is printed and written to dist/fuzz-counterexample.cellrun); 2: bad arguments.
 import { existsSync, mkdirSync, writeFileSync } from 'node:fs'
 import { dirname, join, resolve } from 'node:path'
