@@ -466,6 +466,8 @@ describe('our tree-walking evaluation agrees with mathjs compile()', () => {
     atom: fc.oneof(
       num,
       fc.tuple(num, fc.constantFrom(...UNITS)).map(([a, u]) => `${a} ${u}`),
+      fc.tuple(num, fc.constantFrom(...UNITS), fc.constantFrom('2', '3', '-1')).map(([a, u, p]) => `${a} ${u}^${p}`),
+      num.map((a) => `${a} %`),
       fc.constantFrom('area', 'j', 'n', 'pi'),
     ),
     expr: fc.oneof(
@@ -482,7 +484,12 @@ describe('our tree-walking evaluation agrees with mathjs compile()', () => {
     try {
       const v = f()
       if (typeof v === 'number') return `number ${Object.is(v, -0) ? '-0' : String(v)}`
-      if (isUnit(v)) return `unit ${v.formatUnits()} ${String(v.value)}`
+      if (isUnit(v)) {
+        // Field by field: the unit list (unit, prefix, power), dimensions, value and both flags.
+        const u = v as unknown as { units: { unit: { name: string }; prefix: { name: string }; power: number }[]; dimensions: number[]; fixPrefix: boolean; skipAutomaticSimplification: boolean }
+        const parts = u.units.map((p) => `${p.prefix.name}${p.unit.name}^${p.power}`).join(' ')
+        return `unit ${parts} [${u.dimensions.join(',')}] ${String(v.value)} fix=${u.fixPrefix} skip=${u.skipAutomaticSimplification} ${v.formatUnits()}`
+      }
       return `other ${String(v)}`
     } catch (e) {
       return 'throws'

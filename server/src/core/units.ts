@@ -622,12 +622,8 @@ function evalNode(node: MathNode, scope: Lookup): unknown {
       if (args.length === 2) {
         const a = evalNode(args[0], scope)
         const b = evalNode(args[1], scope)
-        // `200 g`: a number times a unit, the commonest product, made as mathjs makes it (scaledUnit).
-        if (n.fn === 'multiply' && typeof a === 'number' && isUnit(b) && b.value === null) {
-          const scaled = scaledUnit(b, a)
-          if (scaled) return scaled
-        }
-        return fn(a, b)
+        const direct = binary(n.fn as string, a, b)
+        return direct !== UNDISPATCHED ? direct : fn(a, b)
       }
       return args.length === 1 ? fn(evalNode(args[0], scope)) : fn(...args.map((a) => evalNode(a, scope)))
     }
@@ -640,6 +636,61 @@ function evalNode(node: MathNode, scope: Lookup): unknown {
       // Not reachable: compile() refuses every other node type.
       throw new Error(`${node.type} is not allowed`)
   }
+}
+
+const UNDISPATCHED = Symbol('undispatched')
+/** The Unit methods mathjs's scalar signatures call, with the operand types they accept. */
+interface UnitOps {
+  multiply(other: Unit | number): unknown
+  divide(other: Unit | number): unknown
+  divideInto(numerator: number): unknown
+  pow(p: number): unknown
+}
+
+/**
+ * The binary operations an expression here is made of, done as mathjs's typed functions end up
+ * doing them, without the two layers of typed-function dispatch (operator, then its scalar form):
+ * two numbers by plain arithmetic (mathjs's number functions are exactly that); a unit times or by
+ * a number or unit by the Unit method mathjs's signature calls; `200 g` by scaledUnit. Anything
+ * else (complex numbers, sums of units, powers of numbers) is UNDISPATCHED: the caller goes the
+ * mathjs way. A property test compares the results field by field with mathjs's compiled code.
+ */
+function binary(fn: string, a: unknown, b: unknown): unknown {
+  if (typeof a === 'number') {
+    if (typeof b === 'number') {
+      switch (fn) {
+        case 'multiply':
+          return a * b
+        case 'divide':
+          return a / b
+        case 'add':
+          return a + b
+        case 'subtract':
+          return a - b
+      }
+      return UNDISPATCHED
+    }
+    if (!(b instanceof UnitClass)) return UNDISPATCHED
+    if (fn === 'multiply') {
+      // `200 g`: a number times a unit name, the commonest product.
+      if (b.value === null) {
+        const scaled = scaledUnit(b, a)
+        if (scaled) return scaled
+      }
+      return (b as unknown as UnitOps).multiply(a)
+    }
+    return fn === 'divide' ? (b as unknown as UnitOps).divideInto(a) : UNDISPATCHED
+  }
+  if (!(a instanceof UnitClass) || !(typeof b === 'number' || b instanceof UnitClass)) return UNDISPATCHED
+  switch (fn) {
+    case 'multiply':
+      return (a as unknown as UnitOps).multiply(b)
+    case 'divide':
+      return (a as unknown as UnitOps).divide(b)
+    case 'pow':
+      return typeof b === 'number' ? (a as unknown as UnitOps).pow(b) : UNDISPATCHED
+  }
+  return UNDISPATCHED
 }
 
 const BASE_DIMENSIONS = (UnitClass as unknown as { BASE_DIMENSIONS: unknown[] }).BASE_DIMENSIONS
