@@ -4,10 +4,10 @@
 import { FARADAY, GAS_CONSTANT, DEFAULT_PRESSURE_PA, DEFAULT_TEMPERATURE_K, ZERO_CELSIUS, waterDensity } from './constants'
 import { KNOWN_GASES, productReaction } from './chemistry'
 import { balance, checkBalance, parseReaction, type BalanceCheck, type BalanceResult, type ParsedReaction } from './balance'
-import { runEngine, sameSubstance, type EngineResult, type Product } from './engine'
+import { runEngine, sameSubstance, type EngineResult, type Product, type StepProducts as EngineStep } from './engine'
 import { ResultCache } from './memo'
 import { cellVoltages, type CellVoltages } from './voltage'
-import { simulate, type SimResult, type SimTarget } from './simulate'
+import { simulate, type SimResult, type SimTarget, type StepResult as SimStep } from './simulate'
 
 /** The engine and the simulation for an unchanged chemistry are taken from the last analyses (see memo.ts). */
 export const engineRuns = new ResultCache(runEngine)
@@ -432,14 +432,23 @@ const GAS_AMOUNT_KINDS: readonly Kind[] = ['mass', 'amount', 'volume']
 const PLANNED_AMOUNT_KINDS: readonly Kind[] = ['mass', 'amount', 'mass-fraction', 'molarity']
 const AMOUNT_KINDS: readonly Kind[] = ['mass', 'amount']
 
-/** A hint as the evaluator makes it: label and working may be given as functions, run when first read. */
-interface HintSpec {
+/**
+ * Writes a hint's label or working when it is first read, from the inputs the hint was made with
+ * (a fact it shows) and the evaluator that made it. Writers are module-level functions, shared by
+ * every hint of their kind: a long protocol's hints hold data, not a closure and its context each.
+ */
+type Write<T, R> = (inputs: T, ev: Evaluator) => R
+
+/** A hint as the evaluator makes it: label and working may be given as writers (or functions), run when first read. */
+interface HintSpec<T = undefined> {
   key: string
-  label: string | (() => string)
+  label: string | Write<T, string>
   value?: number
   unit?: string
   title: string
-  working: string[] | (() => string[])
+  working: string[] | Write<T, string[]>
+  /** What the writers are given (with the evaluator). */
+  inputs?: T
 }
 
 /**
@@ -456,12 +465,15 @@ class DeferredComputed implements Computed {
   readonly value?: number
   readonly unit?: string
   readonly title: string
-  #label: string | (() => string)
-  #working: string[] | (() => string[])
+  #label: string | Write<unknown, string>
+  #working: string[] | Write<unknown, string[]>
+  /** The writers' inputs and evaluator, let go once both are written. */
+  #inputs: unknown
+  #ev: Evaluator | undefined
   /** The formatting settings in force when the value was computed (see formatSettings). */
   readonly #settings: number
 
-  constructor(at: { line: number; span: Span }, c: HintSpec) {
+  constructor(at: { line: number; span: Span }, c: HintSpec<unknown>, ev: Evaluator) {
     this.line = at.line
     this.span = at.span
     this.anchor = at.span.end
@@ -471,17 +483,34 @@ class DeferredComputed implements Computed {
     this.title = c.title
     this.#label = c.label
     this.#working = c.working
+    this.#inputs = c.inputs
+    this.#ev = ev
     this.#settings = formatSettings()
   }
 
   get label(): string {
-    if (typeof this.#label === 'function') this.#label = withFormatSettings(this.#settings, this.#label)
-    return this.#label
+    const f = this.#label
+    if (typeof f === 'function') {
+      this.#label = withFormatSettings(this.#settings, () => f(this.#inputs, this.#ev!))
+      this.#release()
+    }
+    return this.#label as string
   }
 
   get working(): string[] {
-    if (typeof this.#working === 'function') this.#working = withFormatSettings(this.#settings, this.#working)
-    return this.#working
+    const f = this.#working
+    if (typeof f === 'function') {
+      this.#working = withFormatSettings(this.#settings, () => f(this.#inputs, this.#ev!))
+      this.#release()
+    }
+    return this.#working as string[]
+  }
+
+  #release(): void {
+    if (typeof this.#label !== 'function' && typeof this.#working !== 'function') {
+      this.#inputs = undefined
+      this.#ev = undefined
+    }
   }
 
   toJSON(): Computed {
@@ -499,18 +528,247 @@ class DeferredComputed implements Computed {
   }
 }
 
+// ---------------------------------------------------------------------------------------------
+// Hint writers: the labels and workings of the hints every step and yield line has, written from
+// the fact they show when first read (see DeferredComputed). They compute from the same fields, in
+// the same order, as the analysis did.
+
+function stepChargeLabel(s: StepFact, ev: Evaluator): string {
+  const Q = s.chargeC!
+  const Ah = Q / 3600
+  const ne = Q / FARADAY
+  const E = s.voltageV !== undefined ? s.voltageV * Q : undefined
+  const sum = ev.runSumOf(s)
+  const parts = [`${fmt(Ah)} A·h`, `${fmt(ne)} mol e⁻`]
+  if (s.usedArea) parts.unshift(`${fmt(s.currentA!)} A`)
+  // Current density over each part with an area; the hint shows the reference one (cathode).
+  const ref = s.usedArea ?? ev.referenceArea()
+  if (ref && s.densityAm2 === undefined) parts.push(`${fmt((s.currentA! / ref.cm2) * 1000)} mA/cm²`)
+  if (E !== undefined) parts.push(`${fmt(E / 3600)} W·h`)
+  if (sum) parts.push(`Σ ${fmt(sum.chargeC / 3600)} A·h`)
+  return parts.join(' · ')
+}
+
+function stepChargeWorking(s: StepFact, ev: Evaluator): string[] {
+  const Q = s.chargeC!
+  const Ah = Q / 3600
+  const ne = Q / FARADAY
+  const eff = Math.min(Math.max(s.efficiency, 0), 1)
+  const E = s.voltageV !== undefined ? s.voltageV * Q : undefined
+  const sum = ev.runSumOf(s)
+  const w = [
+    s.densityAm2 !== undefined && s.usedArea
+      ? `I = j·A = ${fmt(s.densityAm2 / 10, 4)} mA/cm² × ${fmt(s.usedArea.cm2, 4)} cm² (${s.usedArea.from}) = ${fmt(s.currentA!, 4)} A`
+      : s.currentText && !/^\s*[\d.]+\s*A\s*$/.test(s.currentText)
+        ? `I = ${s.currentText} = ${fmt(s.currentA!, 4)} A`
+        : `I = ${fmt(s.currentA!, 4)} A`,
+    `Q = I·t = ${fmt(s.currentA!, 4)} A × ${formatDuration(s.seconds!)} = ${fmt(Ah, 4)} A·h = ${fmt(Q, 4)} C`,
+    `n(e⁻) = Q/F = ${fmt(Q, 4)} C ÷ ${fmt(FARADAY, 9)} C/mol = ${fmt(ne, 4)} mol`,
+  ]
+  if (eff < 1) w.push(`at ${fmt(eff * 100)} % current efficiency: ${fmt(ne * eff, 4)} mol e⁻ go to the product`)
+  for (const on of ['cathode', 'anode', 'separator'] as const) {
+    const a = ev.referenceArea(on)
+    if (!a) continue
+    const j = (s.currentA! / a.cm2) * 1000
+    w.push(`j = I/A = ${fmt(s.currentA!, 4)} A ÷ ${fmt(a.cm2, 4)} cm² (${a.from}) = ${fmt(j, 4)} mA/cm²`)
+  }
+  if (E !== undefined) w.push(`E = U·Q = ${fmt(s.voltageV!, 4)} V × ${fmt(Ah, 4)} A·h = ${fmt(E / 3600, 4)} W·h`)
+  if (sum) w.push(`all steps: Q = ${fmt(sum.chargeC / 3600, 4)} A·h = ${fmt(sum.chargeC, 4)} C, n(e⁻) = ${fmt(sum.electronMol, 4)} mol`)
+  return w
+}
+
+/** A step's products (from the engine) and the step itself, as the products hint shows them. */
+interface ProductsHint {
+  sp: EngineStep
+  step: StepFact | undefined
+}
+
+/** The energy parts of a step's products hint (specific energy, heat) and their working. */
+function stepEnergy(x: ProductsHint, ev: Evaluator): { parts: string[]; lines: string[] } {
+  const step = x.step
+  const parts: string[] = []
+  const lines: string[] = []
+  if (step?.voltageV !== undefined && step.chargeC !== undefined) {
+    const E = step.voltageV * step.chargeC
+    const main = mainProduct(x.sp.products)
+    if (main) {
+      const M = parseFormula(main.formula).molarMass
+      const kg = (main.mol * M) / 1000
+      if (kg > 0) {
+        const specific = E / 3.6e6 / kg
+        parts.push(`${fmt(specific)} kWh/kg ${prettyFormula(main.formula)}`)
+        lines.push(`specific energy = E/m = ${fmt(E / 3600, 4)} W·h ÷ ${fmt(kg * 1000, 4)} g ${prettyFormula(main.formula)} = ${fmt(specific, 4)} kWh/kg`)
+      }
+    }
+    const v = ev.m.voltages
+    if (v) {
+      const heat = step.heatJ!
+      parts.push(`heat ${fmt(heat / 3600)} W·h`)
+      lines.push(`heat = (U − E_tn)·Q = (${fmt(step.voltageV, 4)} − ${fmt(v.thermoneutral, 4)}) V × ${fmt(step.chargeC / 3600, 4)} A·h = ${fmt(heat / 3600, 4)} W·h${heat < 0 ? ' (the cell takes heat in)' : ''}`)
+    }
+  }
+  return { parts, lines }
+}
+
+function stepProductsLabel(x: ProductsHint, ev: Evaluator): string {
+  const sp = x.sp
+  const Vm = ev.litresPerMol()
+  // Solid and dissolved products first (usually the point of the run), then the gases.
+  const shown = [...sp.products].sort((a, b) => Number(a.gas) - Number(b.gas))
+  return (
+    '→ ' +
+    [...shown.map((p) => `${amountText(p, p.mol, Vm)} ${prettyFormula(p.formula)}`), ...stepEnergy(x, ev).parts].join(' · ') +
+    (sp.notes.length ? ' · ⚠ ' + sp.notes.length : '')
+  )
+}
+
+function stepProductsWorking(x: ProductsHint, ev: Evaluator): string[] {
+  const sp = x.sp
+  const Vm = ev.litresPerMol()
+  return [
+    ...sp.products.map((p) => `${prettyFormula(p.formula)} in ${p.compartment}: ${fmt(p.mol, 4)} mol = ${amountText(p, p.mol, Vm, 4)}  (${p.equation})`),
+    ...stepEnergy(x, ev).lines,
+    ...sp.notes.map((n) => `⚠ ${n}`),
+  ]
+}
+
+function stepSimLabel(st: SimStep, ev: Evaluator): string {
+  const m = ev.m
+  const main = m.simulation!.mainProduct
+  const snap = main ? st.compartments.find((c) => c.name === main.compartment) : undefined
+  const parts: string[] = []
+  if (snap?.main && main && main.formula !== 'H2' && main.formula !== 'Cl2') parts.push(`${fmt(snap.main.wtPercent)} wt% ${prettyFormula(snap.main.formula)} in ${snap.name}`)
+  if (st.product) parts.push(`CE ${fmt(st.product.efficiency * 100)} %`)
+  for (const c of st.compartments) parts.push(`pH ${c.ph.toFixed(1)} ${c.name}`)
+  if (Math.abs(st.temperatureK - m.temperatureK) > 0.5) parts.push(`${fmt(st.temperatureK - ZERO_CELSIUS)} °C`)
+  return `sim: ${parts.join(' · ')}`
+}
+
+function stepSimWorking(st: SimStep, ev: Evaluator): string[] {
+  const m = ev.m
+  return [
+    `after ${formatDuration(st.endTime)} of the run${st.product ? `; ${prettyFormula(st.product.formula)} formed in the step: ${fmt(st.product.mol, 4)} mol, current efficiency ${fmt(st.product.efficiency * 100, 3)} %` : ''}`,
+    ...st.compartments.map(
+      (c) =>
+        `${c.name}: ${fmt(c.volumeL * 1000, 4)} mL, ${fmt(c.massG, 4)} g, pH ${c.ph.toFixed(2)}` +
+        (c.main ? `, ${prettyFormula(c.main.formula)} ${fmt(c.main.wtPercent, 3)} wt% = ${fmt(c.main.molPerL, 3)} mol/L` : '') +
+        (Object.keys(c.solids).length ? `, solid: ${Object.entries(c.solids).map(([k, x]) => `${fmt(x, 3)} mol ${prettyFormula(k)}`).join(', ')}` : ''),
+    ),
+    `gases so far: ${Object.entries(st.gases).map(([g, x]) => `${fmt(x * ev.litresPerMol(), 4)} L ${prettyFormula(g)}`).join(', ') || 'none'}`,
+    `temperature ${fmt(st.temperatureK - ZERO_CELSIUS, 3)} °C${m.handling.some((h) => h.type.text === 'cooling') ? ' (cooling declared: held)' : ''}`,
+    'simulation: ions share the current through the separator by |z|·c·λ; see the README for its assumptions',
+  ]
+}
+
+/** A planned or measured yield as its hints show it: the fact, and what the yield line worked out with it. */
+interface YieldHint {
+  y: YieldFact
+  /** Molar mass, g/mol, and molar gas volume, L/mol. */
+  M: number
+  Vm: number
+  gas: boolean
+  /** The formula as shown. */
+  pf: string
+  /** The compartment whose charge the stated amount includes. */
+  where: Compartment | undefined
+}
+
+/** An amount of the yield's substance in the unit its line states it in. */
+function yieldShown(x: YieldHint, mol: number): string {
+  const kind = x.y.quantity.kind
+  return kind === 'volume' ? gasVolumeText(mol * x.Vm) : kind === 'amount' ? `${fmt(mol)} mol` : `${fmt(mol * x.M)} g`
+}
+
+function expectMaxLabel(x: YieldHint): string {
+  const y = x.y
+  const initialMol = y.initialMol
+  const maxMolEff = y.maxMolEff!
+  const formedMol = y.formedMol
+  return (
+    `max ${yieldShown(x, initialMol + maxMolEff)}` +
+    (initialMol > 0 ? ` incl. ${yieldShown(x, initialMol)} charged` : '') +
+    (y.feedLimited ? ' (feed-limited)' : '') +
+    (formedMol !== undefined && formedMol >= 0 && maxMolEff > 0 ? ` · plan ${fmt((100 * formedMol) / maxMolEff)} % of max` : '')
+  )
+}
+
+function yieldWorking(x: YieldHint, ev: Evaluator): string[] {
+  const { y, M, Vm, pf } = x
+  const m = ev.m
+  const reaction = y.reaction!
+  const maxMolEff = y.maxMolEff!
+  const initialMol = y.initialMol
+  const w = [
+    `${reaction.equation}  (${reaction.reason})`,
+    `n(e⁻) = ${fmt(m.totals.electronMol, 4)} mol over all steps`,
+    `${pf} formed: ${fmt(maxMolEff, 4)} mol = ${fmt(maxMolEff * M, 4)} g at the steps' efficiencies${y.feedLimited ? ' and with the feed running out' : ''}; Faraday's law for the whole charge: n(e⁻)/${fmt(reaction.electrons, 4)} = ${fmt(y.maxMol100!, 4)} mol`,
+  ]
+  if (x.gas) {
+    w.push(`gas volume at ${fmt(m.temperatureK - ZERO_CELSIUS)} °C and ${fmt(m.pressurePa / 1000, 5)} kPa: V = nRT/p = ${fmt(maxMolEff * Vm, 4)} L (dry ideal gas; gas over the hot electrolyte also carries water vapour)`)
+  }
+  if (y.feedLimited) w.push(...m.engine!.steps.flatMap((s) => s.notes.map((n) => `⚠ step on line ${s.line + 1}: ${n}`)))
+  if (initialMol > 0) w.push(`charged before the run into ${x.where!.name}: ${fmt(initialMol, 4)} mol = ${fmt(initialMol * M, 4)} g; the stated amount includes it`)
+  return w
+}
+
+function observeEfficiencyLabel(x: YieldHint): string {
+  return `current efficiency ${fmt((x.y.formedMol! / x.y.maxMol100!) * 100)} %`
+}
+
+function observeEfficiencyWorking(x: YieldHint, ev: Evaluator): string[] {
+  const y = x.y
+  const formedMol = y.formedMol!
+  const initialMol = y.initialMol
+  const ce = formedMol / y.maxMol100!
+  return [
+    ...yieldWorking(x, ev),
+    `current efficiency = formed ÷ (n(e⁻)/${fmt(y.reaction!.electrons, 4)}) = ` +
+      (initialMol > 0 ? `(${fmt(y.mol!, 4)} − ${fmt(initialMol, 4)}) mol` : `${fmt(formedMol, 4)} mol`) +
+      ` ÷ ${fmt(y.maxMol100!, 4)} mol = ${fmt(ce * 100, 3)} %`,
+  ]
+}
+
+/** The simulation's main product against a planned or measured yield of it. */
+function yieldSimLabel(y: YieldFact, ev: Evaluator): string {
+  const main = ev.m.simulation!.mainProduct!
+  const { formed, electrons } = ev.simSums!
+  const simCe = electrons > 0 ? ((formed * main.electrons) / electrons) * 100 : 0
+  return y.kind === 'expect' ? `sim: ${fmt((formed + y.initialMol) * parseFormula(main.formula).molarMass)} g at CE ${fmt(simCe)} %` : `sim CE ${fmt(simCe)} %`
+}
+
+function yieldSimWorking(y: YieldFact, ev: Evaluator): string[] {
+  const main = ev.m.simulation!.mainProduct!
+  const M = parseFormula(main.formula).molarMass
+  const { formed, electrons } = ev.simSums!
+  return [
+    `simulated ${prettyFormula(main.formula)} formed: ${fmt(formed, 4)} mol = ${fmt(formed * M, 4)} g` + (y.initialMol > 0 ? `, plus ${fmt(y.initialMol * M, 4)} g charged` : ''),
+    `simulated current efficiency: ${fmt(formed, 4)} mol × ${main.electrons} ÷ ${fmt(electrons, 4)} mol e⁻ = ${fmt(electrons > 0 ? ((formed * main.electrons) / electrons) * 100 : 0, 3)} %`,
+  ]
+}
+
 class Evaluator {
-  constructor(private readonly m: Model) {}
+  constructor(readonly m: Model) {}
+
+  /** The run's totals as the last charged step's hover shows them (when more than one step is charged). */
+  private runSum: { step: StepFact; chargeC: number; electronMol: number } | undefined
+  /** The main product the simulation formed over the run, mol, and the electrons it passed, mol. */
+  simSums: { formed: number; electrons: number } | undefined
+  runSumOf(s: StepFact): { chargeC: number; electronMol: number } | undefined {
+    return this.runSum?.step === s ? this.runSum : undefined
+  }
 
   /**
    * A computed value shown at the end of a statement (its hint) and explained over it (its hover).
    * The working may be given as a function: it is then written only when it is first read (a hover,
    * a report), not on every keystroke for every step of a long protocol.
    */
-  private hintAt(at: { line: number; span: Span }, c: HintSpec): void {
+  private hintAt<T = undefined>(at: { line: number; span: Span }, c: HintSpec<T>): void {
     const { label, working } = c
-    if (typeof label === 'function' || typeof working === 'function') this.m.computed.push(new DeferredComputed(at, c))
-    else this.m.computed.push({ line: at.line, span: at.span, anchor: at.span.end, ...c, label, working })
+    if (typeof label === 'function' || typeof working === 'function') this.m.computed.push(new DeferredComputed(at, c as HintSpec<unknown>, this))
+    else {
+      const { inputs: _, ...shown } = c
+      this.m.computed.push({ line: at.line, span: at.span, anchor: at.span.end, ...shown, label, working })
+    }
   }
 
   quantity(
@@ -949,51 +1207,19 @@ class Evaluator {
       t.chargeC += Q
       t.electronMol += ne
       t.effectiveElectronMol += ne * eff
-      const Ah = Q / 3600
       const E = s.voltageV !== undefined ? s.voltageV * Q : undefined
       if (E !== undefined) energy += E
       else energyKnown = false
-      const sum = s === lastCharged && charged.length > 1 ? { chargeC: t.chargeC, electronMol: t.electronMol } : undefined
-      // The label and the working are written when they are read (see hintAt); everything they use
-      // is fixed by now.
-      const label = () => {
-        const parts = [`${fmt(Ah)} A·h`, `${fmt(ne)} mol e⁻`]
-        if (s.usedArea) parts.unshift(`${fmt(s.currentA!)} A`)
-        // Current density over each part with an area; the hint shows the reference one (cathode).
-        const ref = s.usedArea ?? this.referenceArea()
-        if (ref && s.densityAm2 === undefined) parts.push(`${fmt((s.currentA! / ref.cm2) * 1000)} mA/cm²`)
-        if (E !== undefined) parts.push(`${fmt(E / 3600)} W·h`)
-        if (sum) parts.push(`Σ ${fmt(sum.chargeC / 3600)} A·h`)
-        return parts.join(' · ')
-      }
-      const working = () => {
-        const w = [
-          s.densityAm2 !== undefined && s.usedArea
-            ? `I = j·A = ${fmt(s.densityAm2 / 10, 4)} mA/cm² × ${fmt(s.usedArea.cm2, 4)} cm² (${s.usedArea.from}) = ${fmt(s.currentA!, 4)} A`
-            : s.currentText && !/^\s*[\d.]+\s*A\s*$/.test(s.currentText)
-              ? `I = ${s.currentText} = ${fmt(s.currentA!, 4)} A`
-              : `I = ${fmt(s.currentA!, 4)} A`,
-          `Q = I·t = ${fmt(s.currentA!, 4)} A × ${formatDuration(s.seconds!)} = ${fmt(Ah, 4)} A·h = ${fmt(Q, 4)} C`,
-          `n(e⁻) = Q/F = ${fmt(Q, 4)} C ÷ ${fmt(FARADAY, 9)} C/mol = ${fmt(ne, 4)} mol`,
-        ]
-        if (eff < 1) w.push(`at ${fmt(eff * 100)} % current efficiency: ${fmt(ne * eff, 4)} mol e⁻ go to the product`)
-        for (const on of ['cathode', 'anode', 'separator'] as const) {
-          const a = this.referenceArea(on)
-          if (!a) continue
-          const j = (s.currentA! / a.cm2) * 1000
-          w.push(`j = I/A = ${fmt(s.currentA!, 4)} A ÷ ${fmt(a.cm2, 4)} cm² (${a.from}) = ${fmt(j, 4)} mA/cm²`)
-        }
-        if (E !== undefined) w.push(`E = U·Q = ${fmt(s.voltageV!, 4)} V × ${fmt(Ah, 4)} A·h = ${fmt(E / 3600, 4)} W·h`)
-        if (sum) w.push(`all steps: Q = ${fmt(sum.chargeC / 3600, 4)} A·h = ${fmt(sum.chargeC, 4)} C, n(e⁻) = ${fmt(sum.electronMol, 4)} mol`)
-        return w
-      }
+      // The last charged step's hover also sums the run (when there is more than one).
+      if (s === lastCharged && charged.length > 1) this.runSum = { step: s, chargeC: t.chargeC, electronMol: t.electronMol }
       this.hintAt(s, {
         key: 'step.charge',
-        label,
+        label: stepChargeLabel,
         value: Q,
         unit: 'C',
         title: `Charge passed in step ${s.label}`,
-        working,
+        working: stepChargeWorking,
+        inputs: s,
       })
     }
     if (energyKnown && this.m.steps.length > 0) t.energyJ = energy
@@ -1090,33 +1316,12 @@ class Evaluator {
     const clock = (t: number) => formatDuration(t)
     for (const st of sim.steps) {
       if (st.electronMol <= 0) continue
-      const node = m.tree.lines[st.line]
-      const main = sim.mainProduct
-      const label = () => {
-        const snap = main ? st.compartments.find((c) => c.name === main.compartment) : undefined
-        const parts: string[] = []
-        if (snap?.main && main && main.formula !== 'H2' && main.formula !== 'Cl2') parts.push(`${fmt(snap.main.wtPercent)} wt% ${prettyFormula(snap.main.formula)} in ${snap.name}`)
-        if (st.product) parts.push(`CE ${fmt(st.product.efficiency * 100)} %`)
-        for (const c of st.compartments) parts.push(`pH ${c.ph.toFixed(1)} ${c.name}`)
-        if (Math.abs(st.temperatureK - m.temperatureK) > 0.5) parts.push(`${fmt(st.temperatureK - ZERO_CELSIUS)} °C`)
-        return `sim: ${parts.join(' · ')}`
-      }
-      this.hintAt(node, {
+      this.hintAt(m.tree.lines[st.line], {
         key: 'step.sim',
-        label,
+        label: stepSimLabel,
         title: 'Simulated state at the end of this step',
-        working: () => [
-          `after ${clock(st.endTime)} of the run${st.product ? `; ${prettyFormula(st.product.formula)} formed in the step: ${fmt(st.product.mol, 4)} mol, current efficiency ${fmt(st.product.efficiency * 100, 3)} %` : ''}`,
-          ...st.compartments.map(
-            (c) =>
-              `${c.name}: ${fmt(c.volumeL * 1000, 4)} mL, ${fmt(c.massG, 4)} g, pH ${c.ph.toFixed(2)}` +
-              (c.main ? `, ${prettyFormula(c.main.formula)} ${fmt(c.main.wtPercent, 3)} wt% = ${fmt(c.main.molPerL, 3)} mol/L` : '') +
-              (Object.keys(c.solids).length ? `, solid: ${Object.entries(c.solids).map(([k, x]) => `${fmt(x, 3)} mol ${prettyFormula(k)}`).join(', ')}` : ''),
-          ),
-          `gases so far: ${Object.entries(st.gases).map(([g, x]) => `${fmt(x * this.litresPerMol(), 4)} L ${prettyFormula(g)}`).join(', ') || 'none'}`,
-          `temperature ${fmt(st.temperatureK - ZERO_CELSIUS, 3)} °C${m.handling.some((h) => h.type.text === 'cooling') ? ' (cooling declared: held)' : ''}`,
-          'simulation: ions share the current through the separator by |z|·c·λ; see the README for its assumptions',
-        ],
+        working: stepSimWorking,
+        inputs: st,
       })
     }
     // The run line: the end state and the overall current efficiency.
@@ -1168,6 +1373,7 @@ class Evaluator {
     const f = parseFormula(main.formula)
     const formed = sim.steps.reduce((t, x) => t + (x.product?.mol ?? 0), 0)
     const electrons = sim.steps.reduce((t, x) => t + x.electronMol, 0)
+    this.simSums = { formed, electrons }
     const targetAt = new Map(m.targets.map((t) => [t.line, t]))
     for (const y of m.yields) {
       if (!sameSubstance(main.formula, y.formula.formula)) continue
@@ -1190,18 +1396,14 @@ class Evaluator {
         continue
       }
       if (y.mol === undefined || q.kind === 'volume') continue
-      const simCe = electrons > 0 ? ((formed * main.electrons) / electrons) * 100 : 0
-      const label = () => (y.kind === 'expect' ? `sim: ${fmt((formed + y.initialMol) * f.molarMass)} g at CE ${fmt(simCe)} %` : `sim CE ${fmt(simCe)} %`)
       this.hintAt(node, {
         key: y.kind === 'expect' ? 'expect.sim' : 'observe.sim',
-        label,
+        label: yieldSimLabel,
         value: y.kind === 'expect' ? (formed + y.initialMol) * f.molarMass : electrons > 0 ? (formed * main.electrons) / electrons : 0,
         unit: y.kind === 'expect' ? 'g' : '1',
         title: `${prettyFormula(main.formula)} in the simulation`,
-        working: () => [
-          `simulated ${prettyFormula(main.formula)} formed: ${fmt(formed, 4)} mol = ${fmt(formed * f.molarMass, 4)} g` + (y.initialMol > 0 ? `, plus ${fmt(y.initialMol * f.molarMass, 4)} g charged` : ''),
-          `simulated current efficiency: ${fmt(formed, 4)} mol × ${main.electrons} ÷ ${fmt(electrons, 4)} mol e⁻ = ${fmt(electrons > 0 ? ((formed * main.electrons) / electrons) * 100 : 0, 3)} %`,
-        ],
+        working: yieldSimWorking,
+        inputs: y,
       })
     }
   }
@@ -1243,7 +1445,6 @@ class Evaluator {
         working: [r.equation, `why: ${r.reason}`, ...(r.role === 'cathode' ? [`separator: ${couplingText(engine.coupling)}`] : [])],
       })
     }
-    const Vm = this.litresPerMol()
     const v = v0
     if (v) {
       m.voltages = v
@@ -1278,47 +1479,16 @@ class Evaluator {
         continue
       }
       if (sp.products.length === 0) continue
-      const step = held
-      const energy: string[] = []
-      const energyParts: string[] = []
-      if (step?.voltageV !== undefined && step.chargeC !== undefined) {
-        const E = step.voltageV * step.chargeC
-        const main = mainProduct(sp.products)
-        if (main) {
-          const M = parseFormula(main.formula).molarMass
-          const kg = (main.mol * M) / 1000
-          if (kg > 0) {
-            const specific = E / 3.6e6 / kg
-            energyParts.push(`${fmt(specific)} kWh/kg ${prettyFormula(main.formula)}`)
-            energy.push(`specific energy = E/m = ${fmt(E / 3600, 4)} W·h ÷ ${fmt(kg * 1000, 4)} g ${prettyFormula(main.formula)} = ${fmt(specific, 4)} kWh/kg`)
-          }
-        }
-        if (v) {
-          const heat = (step.voltageV - v.thermoneutral) * step.chargeC
-          step.heatJ = heat
-          energyParts.push(`heat ${fmt(heat / 3600)} W·h`)
-          energy.push(`heat = (U − E_tn)·Q = (${fmt(step.voltageV, 4)} − ${fmt(v.thermoneutral, 4)}) V × ${fmt(step.chargeC / 3600, 4)} A·h = ${fmt(heat / 3600, 4)} W·h${heat < 0 ? ' (the cell takes heat in)' : ''}`)
-        }
-      }
-      const label = () => {
-        // Solid and dissolved products first (usually the point of the run), then the gases.
-        const shown = [...sp.products].sort((x, y) => Number(x.gas) - Number(y.gas))
-        return (
-          '→ ' +
-          [...shown.map((p) => `${amountText(p, p.mol, Vm)} ${prettyFormula(p.formula)}`), ...energyParts].join(' · ') +
-          (sp.notes.length ? ' · ⚠ ' + sp.notes.length : '')
-        )
-      }
+      // The heat of the step is kept on its fact (the energy balance reads it); the label and the
+      // working are written when read.
+      if (v && held?.voltageV !== undefined && held.chargeC !== undefined) held.heatJ = (held.voltageV - v.thermoneutral) * held.chargeC
       const node = m.tree.lines[sp.line]
       this.hintAt(node, {
         key: 'step.products',
-        label,
+        label: stepProductsLabel,
         title: 'Products of this step',
-        working: () => [
-          ...sp.products.map((p) => `${prettyFormula(p.formula)} in ${p.compartment}: ${fmt(p.mol, 4)} mol = ${amountText(p, p.mol, Vm, 4)}  (${p.equation})`),
-          ...energy,
-          ...sp.notes.map((x) => `⚠ ${x}`),
-        ],
+        working: stepProductsWorking,
+        inputs: { sp, step: held },
       })
     }
   }
@@ -1331,7 +1501,7 @@ class Evaluator {
   }
   private readonly reactions = new Map<Product, NonNullable<YieldFact['reaction']>>()
 
-  private litresPerMol(): number {
+  litresPerMol(): number {
     return ((GAS_CONSTANT * this.m.temperatureK) / this.m.pressurePa) * 1000
   }
 
@@ -1435,59 +1605,29 @@ class Evaluator {
     if (!gas && where) y.initialMol = chargedMol(where, f)
     if (y.mol !== undefined) y.formedMol = y.mol - y.initialMol
     if (y.maxMolEff === undefined || y.maxMol100 === undefined || this.m.totals.electronMol === 0) return
-    const shown = (mol: number) => (q.kind === 'volume' ? gasVolumeText(mol * Vm) : q.kind === 'amount' ? `${fmt(mol)} mol` : `${fmt(mol * M)} g`)
-    // The working is written when it is read (see hintAt): the values it uses are fixed here.
-    const reaction = y.reaction
-    const maxMolEff = y.maxMolEff
-    const maxMol100 = y.maxMol100
-    const feedLimited = y.feedLimited
-    const initialMol = y.initialMol
-    const measuredMol = y.mol
-    const electronMol = this.m.totals.electronMol
-    const Tc = this.m.temperatureK - ZERO_CELSIUS
-    const kPa = this.m.pressurePa / 1000
-    const working = (): string[] => {
-      const w = [
-        `${reaction.equation}  (${reaction.reason})`,
-        `n(e⁻) = ${fmt(electronMol, 4)} mol over all steps`,
-        `${pf} formed: ${fmt(maxMolEff, 4)} mol = ${fmt(maxMolEff * M, 4)} g at the steps' efficiencies${feedLimited ? ' and with the feed running out' : ''}; Faraday's law for the whole charge: n(e⁻)/${fmt(reaction.electrons, 4)} = ${fmt(maxMol100, 4)} mol`,
-      ]
-      if (gas) {
-        w.push(`gas volume at ${fmt(Tc)} °C and ${fmt(kPa, 5)} kPa: V = nRT/p = ${fmt(maxMolEff * Vm, 4)} L (dry ideal gas; gas over the hot electrolyte also carries water vapour)`)
-      }
-      if (feedLimited) w.push(...engine!.steps.flatMap((s) => s.notes.map((x) => `⚠ step on line ${s.line + 1}: ${x}`)))
-      if (initialMol > 0) w.push(`charged before the run into ${where!.name}: ${fmt(initialMol, 4)} mol = ${fmt(initialMol * M, 4)} g; the stated amount includes it`)
-      return w
-    }
+    // The label and the working are written when read (see the yield writers): what they use is
+    // fixed here, in the yield fact and the few values below.
+    const inputs: YieldHint = { y, M, Vm, gas, pf, where }
     const formedMol = y.formedMol
     if (n.kind === 'expect') {
-      const label = () =>
-        `max ${shown(initialMol + maxMolEff)}` +
-        (initialMol > 0 ? ` incl. ${shown(initialMol)} charged` : '') +
-        (feedLimited ? ' (feed-limited)' : '') +
-        (formedMol !== undefined && formedMol >= 0 && maxMolEff > 0 ? ` · plan ${fmt((100 * formedMol) / maxMolEff)} % of max` : '')
       this.hintAt(n, {
         key: 'expect.max',
-        label,
+        label: expectMaxLabel,
         value: (y.initialMol + y.maxMolEff) * M,
         unit: 'g',
         title: `Theoretical ${pf} (Faraday's law)`,
-        working,
+        working: yieldWorking,
+        inputs,
       })
     } else if (formedMol !== undefined && y.maxMol100 > 0) {
-      const ce = formedMol / y.maxMol100
       this.hintAt(n, {
         key: 'observe.efficiency',
-        label: () => `current efficiency ${fmt(ce * 100)} %`,
-        value: ce,
+        label: observeEfficiencyLabel,
+        value: formedMol / y.maxMol100,
         unit: '1',
         title: `Current efficiency for ${pf}`,
-        working: () => [
-          ...working(),
-          `current efficiency = formed ÷ (n(e⁻)/${fmt(reaction.electrons, 4)}) = ` +
-            (initialMol > 0 ? `(${fmt(measuredMol!, 4)} − ${fmt(initialMol, 4)}) mol` : `${fmt(formedMol, 4)} mol`) +
-            ` ÷ ${fmt(maxMol100, 4)} mol = ${fmt(ce * 100, 3)} %`,
-        ],
+        working: observeEfficiencyWorking,
+        inputs,
       })
     }
   }
