@@ -572,11 +572,12 @@ describe('a number times a unit is mathjs\'s product', () => {
     if (!isUnit(v)) return { plain: v }
     const u = v as unknown as { value: number; dimensions: number[]; fixPrefix: boolean; skipAutomaticSimplification: boolean; units: { unit: { name: string }; prefix: { name: string }; power: number }[] }
     return {
+      keys: Object.keys(u),
       value: Object.is(u.value, -0) ? '-0' : u.value,
       dimensions: u.dimensions,
       fixPrefix: u.fixPrefix,
       skip: u.skipAutomaticSimplification,
-      units: u.units.map((x) => [x.unit.name, x.prefix.name, x.power]),
+      units: u.units.map((x) => [Object.keys(x).join(','), x.unit.name, x.prefix.name, x.power]),
     }
   }
   it('for every unit mathjs knows here, with and without prefixes, and any number', () => {
@@ -605,6 +606,57 @@ describe('a number times a unit is mathjs\'s product', () => {
       { numRuns: 5000, seed: 43 },
     )
     expect(fast).toBeGreaterThan(4000)
+  })
+})
+
+describe('a unit times or by a number or a unit is mathjs\'s product and quotient', () => {
+  // The oracle is the sandboxed instance's own multiply(a, b) and divide(a, b), compared field by
+  // field: value (bit for bit, -0 apart), dimensions, both flags, the unit list with each entry's
+  // keys in order, and the class of the result.
+  const fields = (v: unknown) => {
+    if (!isUnit(v)) return { plain: Object.is(v, -0) ? '-0' : v }
+    const u = v as unknown as { value: number; dimensions: number[]; fixPrefix: boolean; skipAutomaticSimplification: boolean; units: Record<string, unknown>[] }
+    return {
+      proto: Object.getPrototypeOf(v) === Object.getPrototypeOf(sandbox.unitValue('g')),
+      keys: Object.keys(u),
+      value: Object.is(u.value, -0) ? '-0' : u.value,
+      dimensions: u.dimensions.map((d) => (Object.is(d, -0) ? '-0' : d)),
+      fixPrefix: u.fixPrefix,
+      skip: u.skipAutomaticSimplification,
+      units: u.units.map((x) => [Object.keys(x).join(','), (x.unit as { name: string }).name, (x.prefix as { name: string }).name, Object.is(x.power, -0) ? '-0' : x.power]),
+    }
+  }
+  // (fractional powers: 0.1 + 0.2 - 0.3 is not 0 but within mathjs's 1e-12 of it)
+  const UNITS = ['g', 'kg', 'mL', 'L', 'A', 'mA', 'h', 'min', 's', 'cm', 'cm^2', 'm^3', 'mol', 'V', 'Ah', 'wtpct', 'mA/cm^2', 'mol/L', 'g/mol', 'kW h', 'degC', 'K', 'Pa', 'm/s^2', 'm^0.1', 'm^0.2', 'm^0.3']
+  const num = fc.oneof(fc.double({ noNaN: true }), fc.integer({ min: -1000, max: 1000 }), fc.constantFrom(0, -0, 1, 0.5, 1e-300, 1e300, Infinity))
+  // Valued units made by mathjs itself (1 UNIT times any number, non-finite ones included).
+  const valued = fc
+    .tuple(num, fc.constantFrom(...UNITS), fc.option(fc.constantFrom(...UNITS)))
+    .map(([x, u, w]) => sandbox.mathjsProduct((w ? sandbox.mathjsProduct(value(`1 ${u}`) as never, value(`1 ${w}`) as never, false) : value(`1 ${u}`)) as never, x, false))
+  it('for valued units of many kinds, numbers, and valueless units (which go the mathjs way)', () => {
+    let fast = 0
+    const operand = fc.oneof(valued, num, fc.constantFrom(...UNITS).map((u) => value(u)))
+    fc.assert(
+      fc.property(valued, operand, fc.boolean(), (a, b, divide) => {
+        if (!isUnit(a)) return
+        const ours = sandbox.unitProduct(a, b as never, divide)
+        if (ours === undefined) return
+        fast++
+        expect(fields(ours), `${divide ? 'divide' : 'multiply'}`).toEqual(fields(sandbox.mathjsProduct(a, b as never, divide)))
+      }),
+      { numRuns: 5000, seed: 47 },
+    )
+    expect(fast).toBeGreaterThan(2500)
+  })
+  it('a result whose dimensions are within 1e-12 of none is a number, as in mathjs', () => {
+    // 0.1 + 0.2 - 0.3 = 5.6e-17: mathjs's equalBase tolerance makes m^0.1 · m^0.2 / m^0.3 a plain number.
+    const a = sandbox.mathjsProduct(value('2 m^0.1') as never, value('3 m^0.2') as never, false)
+    for (const [b, divide] of [[value('4 m^0.3'), true], [value('4 m^-0.3'), false], [value('4 m^0.31'), true]] as const) {
+      const ours = sandbox.unitProduct(a as never, b as never, divide)
+      expect(ours).not.toBeUndefined()
+      expect(fields(ours)).toEqual(fields(sandbox.mathjsProduct(a as never, b as never, divide)))
+    }
+    expect(typeof sandbox.unitProduct(a as never, value('4 m^0.3') as never, true)).toBe('number')
   })
 })
 

@@ -684,13 +684,62 @@ function binary(fn: string, a: unknown, b: unknown): unknown {
   if (!(a instanceof UnitClass) || !(typeof b === 'number' || b instanceof UnitClass)) return UNDISPATCHED
   switch (fn) {
     case 'multiply':
-      return (a as unknown as UnitOps).multiply(b)
+      return unitProduct(a, b, false) ?? (a as unknown as UnitOps).multiply(b)
     case 'divide':
-      return (a as unknown as UnitOps).divide(b)
+      return unitProduct(a, b, true) ?? (a as unknown as UnitOps).divide(b)
     case 'pow':
       return typeof b === 'number' ? (a as unknown as UnitOps).pow(b) : UNDISPATCHED
   }
   return UNDISPATCHED
+}
+
+/** A unit's parts as mathjs keeps them (the unit list, and the exponent of each base dimension). */
+interface UnitFields {
+  units: { unit: unknown; prefix: unknown; power: number }[]
+  dimensions: number[]
+  value: unknown
+  fixPrefix: boolean
+  skipAutomaticSimplification: boolean
+}
+const PREDICTABLE = (math.config as unknown as () => { predictable?: boolean })().predictable === true
+/** A new unit as mathjs's clone() starts one: no value, no units, a fresh array of zero dimensions. */
+const BlankUnit = UnitClass as unknown as new () => UnitFields
+
+/**
+ * `a × b` or `a ÷ b` for a unit with a number value and a number or a unit with a number value, as
+ * Unit.multiply and Unit.divide make it, field by field and in their order: a copy of `a` (unit
+ * list and dimensions), `b`'s dimensions added or subtracted, `b`'s unit list appended (powers
+ * negated when dividing), the values multiplied or divided; a product of a unit and a unit is
+ * simplified later (mathjs clears skipAutomaticSimplification), and a result with no dimension is
+ * its number. Without mathjs's generic copies (a for-in per unit, an object spread per appended
+ * unit). Undefined where a value is not a plain number (a unit name, `cm^2`): the caller goes the
+ * mathjs way. A property test compares the results with mathjs's methods field by field.
+ */
+function unitProduct(a: Unit, b: Unit | number, divide: boolean): unknown {
+  const x = a as unknown as UnitFields
+  const av = x.value
+  if (typeof av !== 'number' || PREDICTABLE) return undefined
+  const y = typeof b === 'number' ? undefined : (b as unknown as UnitFields)
+  const bv = y ? y.value : b
+  if (typeof bv !== 'number') return undefined
+  const res = new BlankUnit()
+  res.fixPrefix = x.fixPrefix
+  res.skipAutomaticSimplification = y ? false : x.skipAutomaticSimplification
+  const units = res.units
+  for (const u of x.units) units.push({ unit: u.unit, prefix: u.prefix, power: u.power })
+  if (y) for (const u of y.units) units.push({ unit: u.unit, prefix: u.prefix, power: divide ? -u.power : u.power })
+  // The constructor's dimensions are a fresh array of zeros, one per base dimension.
+  const dims = res.dimensions
+  let dimensionless = true
+  for (let i = 0; i < BASE_DIMENSIONS.length; i++) {
+    const other = y ? y.dimensions[i] || 0 : 0
+    const d = divide ? (x.dimensions[i] || 0) - other : (x.dimensions[i] || 0) + other
+    dims[i] = d
+    if (Math.abs(d) > 1e-12) dimensionless = false
+  }
+  const value = divide ? av / bv : av * bv
+  res.value = value
+  return dimensionless ? value : res
 }
 
 const BASE_DIMENSIONS = (UnitClass as unknown as { BASE_DIMENSIONS: unknown[] }).BASE_DIMENSIONS
@@ -710,7 +759,11 @@ function scaledUnit(unit: Unit, x: number): Unit | undefined {
   if (!dimensional) return undefined
   // Units defined by other than plain numbers (VAR is complex) go the mathjs way.
   for (const part of u.units) if (typeof part.unit.value !== 'number' || typeof part.prefix.value !== 'number' || typeof part.power !== 'number') return undefined
-  const res = unit.clone() as unknown as UnitParts & { dimensions: number[] }
+  // Unit.clone's copy, made directly (a fresh unit, each part of the unit list copied).
+  const res = new BlankUnit()
+  res.fixPrefix = (unit as unknown as UnitFields).fixPrefix
+  res.skipAutomaticSimplification = (unit as unknown as UnitFields).skipAutomaticSimplification
+  for (const part of (unit as unknown as UnitFields).units) res.units.push({ unit: part.unit, prefix: part.prefix, power: part.power })
   for (let i = 0; i < BASE_DIMENSIONS.length; i++) res.dimensions[i] = (u.dimensions[i] || 0) + 0
   let one = 1
   for (const part of u.units) one = one * Math.pow(part.unit.value * part.prefix.value, part.power)
@@ -1210,6 +1263,14 @@ export const sandbox = {
   /** scaledUnit, to check against mathjs's multiply. */
   scaledUnit(unit: Unit, x: number): Unit | undefined {
     return scaledUnit(unit, x)
+  },
+  /** unitProduct, to check against mathjs's multiply and divide (undefined where it goes the mathjs way). */
+  unitProduct(a: Unit, b: Unit | number, divide: boolean): unknown {
+    return unitProduct(a, b, divide)
+  },
+  /** The sandboxed instance's multiply or divide, the oracle for unitProduct. */
+  mathjsProduct(a: Unit, b: Unit | number, divide: boolean): unknown {
+    return (mathFns[divide ? 'divide' : 'multiply'] as MathFn)(a, b)
   },
   /** The sandboxed instance's multiply, the oracle for scaledUnit. */
   mathjsMultiply(x: number, unit: Unit): unknown {
