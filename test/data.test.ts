@@ -22,7 +22,7 @@
 //            the round-trip tests: H 1.008, C 12.011, O 15.999, Na 22.98976928, S 32.06, Cl 35.45,
 //            K 39.0983, Cu 63.546.
 import { describe, expect, it } from 'vitest'
-import { DENSITY_20C, massFractionFromMassConc, massFractionFromMolarity, solutionDensity } from '../server/src/core/data/density'
+import { DENSITY_20C, massFractionFromMassConc, massFractionFromMolarity, solutionDensity, tableDensity } from '../server/src/core/data/density'
 import { DISSOCIATION } from '../server/src/core/data/ions'
 import { POTENTIALS, potentialFor, type HalfReaction } from '../server/src/core/data/potentials'
 import { SOLUBILITY, solubilityAt } from '../server/src/core/data/solubility'
@@ -206,6 +206,20 @@ describe('density table at 20 °C', () => {
     }
     expect(solutionDensity('NaCl', 25)!.gPerMl).toBeCloseTo((1.1804 + 1.1972) / 2, 10) // midpoint of 24/26 %
     expect(solutionDensity('Nope', 5)).toBeUndefined()
+  })
+
+  it('tableDensity is solutionDensity where the table covers the mass fraction, and undefined elsewhere', () => {
+    for (const [key, t] of tables) {
+      const lo = t.points[0][0]
+      const hi = t.points[t.points.length - 1][0]
+      const ws = [lo, hi, lo - 1e-9, hi + 1e-9, -1, hi + 5, NaN, Infinity, ...t.points.map(([w]) => w)]
+      for (let k = 0; k <= 200; k++) ws.push(lo + ((hi - lo) * k) / 200)
+      for (const w of ws) {
+        const d = solutionDensity(key, w)
+        expect(tableDensity(key, w), `${key} at ${w} %`).toBe(d && !d.extrapolated ? d.gPerMl : undefined)
+      }
+    }
+    expect(tableDensity('Nope', 5)).toBeUndefined()
   })
 })
 

@@ -341,6 +341,17 @@ describe('the cache', () => {
     expect(failure(text)).toMatchObject({ reason: 'unknown-name', name: 'q_cache_probe' })
   })
 
+  it('an expression of units only is kept with its result, until a named value shadows one of its units', () => {
+    const text = '7.25 mL'
+    const first = evaluateExpression(text, EMPTY)
+    expect(evaluateExpression(text, EMPTY)).toBe(first)
+    // `mL` as a named value (shadowing the unit) is read, and the result follows it each time.
+    const shadowed = evaluateExpression(text, new Map([['mL', value('2 A')]]))
+    expect(shadowed).not.toBe(first)
+    expect(shadowed.ok && kindOf(shadowed.value)).toBe('current')
+    expect(evaluateExpression(text, EMPTY)).toMatchObject({ ok: true, kind: 'volume' })
+  })
+
   it('a cached failure stays a failure', () => {
     expect(failure('sin(1)').reason).toBe('refused')
     expect(failure('sin(1)').reason).toBe('refused')

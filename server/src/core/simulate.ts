@@ -20,7 +20,7 @@
 import { FARADAY } from './constants'
 import { ionsOf } from './engine'
 import type { ElectrodeReaction } from './engine'
-import { solutionDensity } from './data/density'
+import { tableDensity } from './data/density'
 import { SOLUBILITY, solubilityAt } from './data/solubility'
 import { parseFormula, prettyFormula } from './formula'
 
@@ -196,6 +196,7 @@ interface Species {
 }
 
 const speciesCache = new Map<string, Species>()
+const NO_SOLIDS: Record<string, number> = Object.freeze({}) as Record<string, number>
 
 /** Forget the species and salt tables read so far (for benchmarks that measure a first analysis). */
 export function clearSimulationCaches(): void {
@@ -351,8 +352,8 @@ class Solution {
     const main = this.mainSalt()
     if (main && total > 0) {
       const w = (100 * main.mol * main.mass) / total
-      const d = solutionDensity(main.formula, w)
-      if (d && !d.extrapolated) return total / d.gPerMl / 1000
+      const d = tableDensity(main.formula, w)
+      if (d !== undefined) return total / d / 1000
     }
     return total / 998.2 // water at 20 °C, 0.9982 g/mL (CRC)
   }
@@ -383,10 +384,11 @@ class Solution {
       const v = this.amt.get(k)!
       if (v > 1e-15) species[k] = v
     }
-    const solids: Record<string, number> = {}
+    // Most compartments hold no solid: they share one empty, frozen record (results are read-only).
+    let solids: Record<string, number> = NO_SOLIDS
     for (const k of this.solids.keys()) {
-      const v = this.solids.get(k)!
-      solids[k] = v
+      if (solids === NO_SOLIDS) solids = {}
+      solids[k] = this.solids.get(k)!
     }
     const snap: CompartmentSnapshot = {
       name: this.name,

@@ -863,7 +863,15 @@ export function evaluateExpression(text: string, scope: ReadonlyMap<string, Valu
     for (let i = 0; i < c.names.length && same; i++) same = scope.get(c.names[i].name) === last.inputs[i]
     if (same) return last.result
   }
-  const inputs = c.names.length === 0 ? NO_INPUTS : c.names.map((n) => scope.get(n.name))
+  // The values the names had, compared by identity next time. An expression of units only (`200 g`)
+  // reads none: NO_INPUTS then stands for all of them (an index past its end reads undefined too).
+  let inputs = NO_INPUTS
+  for (let i = 0; i < c.names.length; i++) {
+    const v = scope.get(c.names[i].name)
+    if (v === undefined) continue
+    if (inputs === NO_INPUTS) inputs = new Array<Value | undefined>(c.names.length).fill(undefined)
+    inputs[i] = v
+  }
   const result = evaluateCompiled(text, c, scope)
   c.last = { inputs, result }
   return result

@@ -177,15 +177,35 @@ export function solutionDensity(
   if (wtPercent < pts[0][0]) return { gPerMl: pts[0][1], extrapolated: true }
   const last = pts[pts.length - 1]
   if (wtPercent > last[0]) return { gPerMl: last[1], extrapolated: true }
+  return { gPerMl: interpolated(pts, wtPercent), extrapolated: false }
+}
+
+/**
+ * The same density as solutionDensity where the table covers `wtPercent`, and undefined where it
+ * does not (or the formula is unknown): a number, no object, for the simulation, which asks on
+ * every time step.
+ */
+export function tableDensity(formula: string, wtPercent: number): number | undefined {
+  const table = tableFor(formula)
+  if (!table || !Number.isFinite(wtPercent)) return undefined
+  const pts = table.points
+  if (wtPercent < pts[0][0] || wtPercent > pts[pts.length - 1][0]) return undefined
+  return interpolated(pts, wtPercent)
+}
+
+/** Piecewise-linear interpolation at `w`, which lies within the table's range. */
+function interpolated(pts: Table['points'], w: number): number {
   for (let i = 0; i < pts.length; i++) {
-    const [w1, d1] = pts[i]
-    if (wtPercent === w1) return { gPerMl: d1, extrapolated: false }
-    if (wtPercent < w1) {
-      const [w0, d0] = pts[i - 1]
-      return { gPerMl: d0 + ((d1 - d0) * (wtPercent - w0)) / (w1 - w0), extrapolated: false }
+    const w1 = pts[i][0]
+    const d1 = pts[i][1]
+    if (w === w1) return d1
+    if (w < w1) {
+      const w0 = pts[i - 1][0]
+      const d0 = pts[i - 1][1]
+      return d0 + ((d1 - d0) * (w - w0)) / (w1 - w0)
     }
   }
-  return { gPerMl: last[1], extrapolated: false }
+  return pts[pts.length - 1][1]
 }
 
 /**
