@@ -79,7 +79,8 @@ interface Compiled {
    * The last evaluation: the scope values it read (by identity) and its result. A line that did not
    * change, with named values that did not change, is not evaluated again on the next analysis.
    */
-  last?: { inputs: (Value | undefined)[]; result: EvalResult }
+  lastInputs?: (Value | undefined)[]
+  lastResult?: EvalResult
 }
 
 type CompileResult = Compiled | { ok: false; failure: ExprFailure }
@@ -270,9 +271,9 @@ function compile(text: string, shortcut = true): CompileResult {
         if (CONSTANTS.has(name)) continue
         const isUnit = isUnitName(name)
         names.push({ name, start: at, end: at + name.length, isUnit })
-        if (isUnit && !unitSymbols.includes(name)) unitSymbols = unitSymbols === NO_UNITS ? [name] : [...unitSymbols, name]
+        if (isUnit && !unitSymbols.includes(name)) unitSymbols = unitSymbols === NO_UNITS ? oneUnit(name) : [...unitSymbols, name]
       }
-      return { ok: true, tree: simple, names, unitSymbols }
+      return { ok: true, tree: simple, names, unitSymbols, lastInputs: undefined, lastResult: undefined }
     }
   }
   const norm = normalise(text)
@@ -384,7 +385,7 @@ function compile(text: string, shortcut = true): CompileResult {
   // cost more than the rest of a first analysis.) A unit raised to a huge power (`1 m^1e9`, `(1 A)^x`
   // with a large `x`) has a finite value but no meaning: refused here, whatever the exponent came
   // from (the caller reports what this throws).
-  return { ok: true, tree: root, names, unitSymbols: unitSymbols.size === 0 ? NO_UNITS : [...unitSymbols] }
+  return { ok: true, tree: root, names, unitSymbols: unitSymbols.size === 0 ? NO_UNITS : [...unitSymbols], lastInputs: undefined, lastResult: undefined }
 }
 
 const NO_UNITS: string[] = []
@@ -428,8 +429,25 @@ const PARSER_WORDS = new Set(['true', 'false', 'null', 'undefined', 'NaN', 'Infi
 function constNode(value: number): MathNode {
   return { type: 'ConstantNode', value } as unknown as MathNode
 }
+/** Symbol nodes are shared by name (frozen: trees are only read), like unit-name lists below. */
+const symbolNodes = new Map<string, MathNode>()
 function symbolNode(name: string): MathNode {
-  return { type: 'SymbolNode', name } as unknown as MathNode
+  let n = symbolNodes.get(name)
+  if (!n) {
+    if (symbolNodes.size >= CACHE_LIMIT) symbolNodes.clear()
+    symbolNodes.set(name, (n = Object.freeze({ type: 'SymbolNode', name }) as unknown as MathNode))
+  }
+  return n
+}
+/** The list of one unit name, shared by every expression that uses just that unit (`200 g`). */
+const oneUnitLists = new Map<string, string[]>()
+function oneUnit(name: string): string[] {
+  let l = oneUnitLists.get(name)
+  if (!l) {
+    if (oneUnitLists.size >= CACHE_LIMIT) oneUnitLists.clear()
+    oneUnitLists.set(name, (l = Object.freeze([name]) as unknown as string[]))
+  }
+  return l
 }
 function operatorNode(op: string, fn: string, args: MathNode[], implicit = false, isPercentage = false): MathNode {
   return { type: 'OperatorNode', op, fn, args, implicit, isPercentage } as unknown as MathNode
@@ -811,6 +829,8 @@ export function clearExpressionCache(): void {
   cache.clear()
   unitNames.clear()
   unitValues.clear()
+  symbolNodes.clear()
+  oneUnitLists.clear()
 }
 
 function compiled(text: string): CompileResult {
@@ -857,11 +877,12 @@ function unitSymbolValue(name: string): Unit {
 export function evaluateExpression(text: string, scope: ReadonlyMap<string, Value>): EvalResult {
   const c = compiled(text)
   if (!c.ok) return c
-  const last = c.last
-  if (last) {
+  const lastResult = c.lastResult
+  if (lastResult) {
+    const lastInputs = c.lastInputs!
     let same = true
-    for (let i = 0; i < c.names.length && same; i++) same = scope.get(c.names[i].name) === last.inputs[i]
-    if (same) return last.result
+    for (let i = 0; i < c.names.length && same; i++) same = scope.get(c.names[i].name) === lastInputs[i]
+    if (same) return lastResult
   }
   // The values the names had, compared by identity next time. An expression of units only (`200 g`)
   // reads none: NO_INPUTS then stands for all of them (an index past its end reads undefined too).
@@ -873,7 +894,8 @@ export function evaluateExpression(text: string, scope: ReadonlyMap<string, Valu
     inputs[i] = v
   }
   const result = evaluateCompiled(text, c, scope)
-  c.last = { inputs, result }
+  c.lastInputs = inputs
+  c.lastResult = result
   return result
 }
 
