@@ -620,6 +620,51 @@ describe('a number times a unit is mathjs\'s product', () => {
   })
 })
 
+describe('a number times a unit name shares its unit list and dimensions (frozen) without changing what mathjs does with it', () => {
+  // The oracle: the same operations on mathjs's own product, which owns its parts.
+  const ops: [string, (u: any) => unknown][] = [
+    ['toString', (u) => u.toString()],
+    ['format', (u) => u.format({ precision: 6 })],
+    ['formatUnits', (u) => u.formatUnits()],
+    ['toJSON', (u) => JSON.stringify(u)],
+    ['clone', (u) => u.clone().toString()],
+    ['toSI', (u) => u.toSI().toString()],
+    ['simplify', (u) => u.simplify().toString()],
+    ['to', (u) => { try { return u.to(u.formatUnits()).toString() } catch (e) { return String(e) } }],
+    ['toNumber', (u) => u.toNumber(u.formatUnits())],
+    ['times itself', (u) => sandbox.mathjsProduct(u, u, false)?.toString()],
+    ['by itself', (u) => String(sandbox.mathjsProduct(u, u, true))],
+    ['times 3', (u) => sandbox.mathjsProduct(u, 3, false)?.toString()],
+    ['pow 2', (u) => u.pow(2).toString()],
+    ['pow 0.5', (u) => u.pow(0.5).toString()],
+    ['abs', (u) => u.abs().toString()],
+    ['equals', (u) => u.equals(u.clone())],
+    ['equalBase', (u) => u.equalBase(u)],
+    ['splitUnit', (u) => { try { return u.splitUnit([u.formatUnits()]).map(String).join(' ') } catch (e) { return String(e) } }],
+  ]
+  it('for common units and values, every operation gives what it gives on mathjs\'s product, and leaves the shared parts as they were', () => {
+    for (const name of ['g', 'kg', 'mL', 'L', 'A', 'mA', 'h', 'min', 's', 'cm', 'mol', 'V', 'Ah', 'wtpct', 'degC', 'K', 'Pa', 'bar', 'J', 'W']) {
+      const unit = sandbox.unitValue(name)
+      for (const x of [0, 2.5, -4, 1e-9, 123456.789]) {
+        const ours = sandbox.scaledUnit(unit, x) as any
+        if (ours === undefined) continue
+        const theirs = sandbox.mathjsMultiply(x, unit) as any
+        const before = JSON.stringify([ours.units.map((p: any) => [p.unit.name, p.prefix.name, p.power]), ours.dimensions])
+        const run = (op: (u: any) => unknown, u: unknown) => {
+          try {
+            return op(u)
+          } catch (e) {
+            return `throws ${String(e)}`
+          }
+        }
+        for (const [what, op] of ops) expect(run(op, ours), `${what} of ${x} ${name}`).toEqual(run(op, theirs))
+        expect(JSON.stringify([ours.units.map((p: any) => [p.unit.name, p.prefix.name, p.power]), ours.dimensions])).toBe(before)
+        expect(Object.isFrozen(ours.units) && Object.isFrozen(ours.dimensions)).toBe(true)
+      }
+    }
+  })
+})
+
 describe('a unit times or by a number or a unit is mathjs\'s product and quotient', () => {
   // The oracle is the sandboxed instance's own multiply(a, b) and divide(a, b), compared field by
   // field: value (bit for bit, -0 apart), dimensions, both flags, the unit list with each entry's

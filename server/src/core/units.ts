@@ -777,16 +777,41 @@ function scaledUnit(unit: Unit, x: number): Unit | undefined {
   if (!dimensional) return undefined
   // Units defined by other than plain numbers (VAR is complex) go the mathjs way.
   for (const part of u.units) if (typeof part.unit.value !== 'number' || typeof part.prefix.value !== 'number' || typeof part.power !== 'number') return undefined
-  // Unit.clone's copy, made directly (a fresh unit, each part of the unit list copied).
-  const res = new BlankUnit()
+  // Unit.clone's copy, with the fields in the constructor's order. Its unit list and dimensions are
+  // the same for every number times this unit: made once per unit name, frozen, and shared. mathjs
+  // copies a unit before it changes one, except Unit.toBest (which changes the first part's prefix
+  // in place and is not used here); a frozen part stays as it is whatever is done with the value.
+  // A test runs mathjs's operations on such values against mathjs's own product.
+  const shared = sharedParts(unit)
+  const res = Object.create(UnitClass.prototype) as UnitFields
   res.fixPrefix = (unit as unknown as UnitFields).fixPrefix
   res.skipAutomaticSimplification = (unit as unknown as UnitFields).skipAutomaticSimplification
-  for (const part of (unit as unknown as UnitFields).units) res.units.push({ unit: part.unit, prefix: part.prefix, power: part.power })
-  for (let i = 0; i < BASE_DIMENSIONS.length; i++) res.dimensions[i] = (u.dimensions[i] || 0) + 0
-  let one = 1
-  for (const part of u.units) one = one * Math.pow(part.unit.value * part.prefix.value, part.power)
-  res.value = one * x
+  res.units = shared.units
+  res.dimensions = shared.dimensions
+  res.value = shared.one * x
   return res as unknown as Unit
+}
+
+/** What every number times a unit name shares: its unit list and dimensions as clone() copies them, and the unit's normalised 1. */
+interface SharedParts {
+  units: UnitFields['units']
+  dimensions: number[]
+  one: number
+}
+const sharedPartsOf = new WeakMap<Unit, SharedParts>()
+function sharedParts(unit: Unit): SharedParts {
+  let p = sharedPartsOf.get(unit)
+  if (!p) {
+    const u = unit as unknown as UnitParts & { dimensions: number[] }
+    const units = (unit as unknown as UnitFields).units.map((part) => Object.freeze({ unit: part.unit, prefix: part.prefix, power: part.power }))
+    const dimensions: number[] = []
+    for (let i = 0; i < BASE_DIMENSIONS.length; i++) dimensions[i] = (u.dimensions[i] || 0) + 0
+    let one = 1
+    for (const part of u.units) one = one * Math.pow(part.unit.value * part.prefix.value, part.power)
+    p = { units: Object.freeze(units) as unknown as UnitFields['units'], dimensions: Object.freeze(dimensions) as unknown as number[], one }
+    sharedPartsOf.set(unit, p)
+  }
+  return p
 }
 
 function refuseHugePowers(v: unknown): unknown {
