@@ -802,12 +802,19 @@ const sharedPartsOf = new WeakMap<Unit, SharedParts>()
 function sharedParts(unit: Unit): SharedParts {
   let p = sharedPartsOf.get(unit)
   if (!p) {
+    // Only a unit name's value (kept by unitSymbolValue) is worth sharing parts for; a unit made
+    // on the way (`cm^2` in `200 cm^2`) gets its own copy, as clone() would make it.
+    const share = symbolValues.has(unit)
     const u = unit as unknown as UnitParts & { dimensions: number[] }
-    const units = (unit as unknown as UnitFields).units.map((part) => Object.freeze({ unit: part.unit, prefix: part.prefix, power: part.power }))
+    const units = (unit as unknown as UnitFields).units.map((part) => {
+      const copy = { unit: part.unit, prefix: part.prefix, power: part.power }
+      return share ? Object.freeze(copy) : copy
+    })
     const dimensions: number[] = []
     for (let i = 0; i < BASE_DIMENSIONS.length; i++) dimensions[i] = (u.dimensions[i] || 0) + 0
     let one = 1
     for (const part of u.units) one = one * Math.pow(part.unit.value * part.prefix.value, part.power)
+    if (!share) return { units, dimensions, one }
     p = { units: Object.freeze(units) as unknown as UnitFields['units'], dimensions: Object.freeze(dimensions) as unknown as number[], one }
     sharedPartsOf.set(unit, p)
   }
@@ -886,11 +893,14 @@ function valueResult(value: Value): EvalResult {
 }
 
 const unitValues = new Map<string, Unit>()
+/** The values unitSymbolValue made (the units whose parts scaledUnit shares). */
+const symbolValues = new WeakSet<Unit>()
 function unitSymbolValue(name: string): Unit {
   let u = unitValues.get(name)
   if (!u) {
     u = math.unit(name)
     unitValues.set(name, u)
+    symbolValues.add(u)
   }
   return u
 }
