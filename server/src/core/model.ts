@@ -533,12 +533,14 @@ class DeferredComputed implements Computed {
 // the fact they show when first read (see DeferredComputed). They compute from the same fields, in
 // the same order, as the analysis did.
 
-function stepChargeLabel(s: StepFact, ev: Evaluator): string {
+/** A charged step's charge as its hint shows it: Q, in A·h, in mol e⁻, its energy and (on the last step) the run's sum. */
+function stepCharge(s: StepFact, ev: Evaluator) {
   const Q = s.chargeC!
-  const Ah = Q / 3600
-  const ne = Q / FARADAY
-  const E = s.voltageV !== undefined ? s.voltageV * Q : undefined
-  const sum = ev.runSumOf(s)
+  return { Q, Ah: Q / 3600, ne: Q / FARADAY, E: s.voltageV !== undefined ? s.voltageV * Q : undefined, sum: ev.runSumOf(s) }
+}
+
+function stepChargeLabel(s: StepFact, ev: Evaluator): string {
+  const { Ah, ne, E, sum } = stepCharge(s, ev)
   const parts = [`${fmt(Ah)} A·h`, `${fmt(ne)} mol e⁻`]
   if (s.usedArea) parts.unshift(`${fmt(s.currentA!)} A`)
   // Current density over each part with an area; the hint shows the reference one (cathode).
@@ -550,12 +552,8 @@ function stepChargeLabel(s: StepFact, ev: Evaluator): string {
 }
 
 function stepChargeWorking(s: StepFact, ev: Evaluator): string[] {
-  const Q = s.chargeC!
-  const Ah = Q / 3600
-  const ne = Q / FARADAY
+  const { Q, Ah, ne, E, sum } = stepCharge(s, ev)
   const eff = Math.min(Math.max(s.efficiency, 0), 1)
-  const E = s.voltageV !== undefined ? s.voltageV * Q : undefined
-  const sum = ev.runSumOf(s)
   const w = [
     s.densityAm2 !== undefined && s.usedArea
       ? `I = j·A = ${fmt(s.densityAm2 / 10, 4)} mA/cm² × ${fmt(s.usedArea.cm2, 4)} cm² (${s.usedArea.from}) = ${fmt(s.currentA!, 4)} A`
@@ -729,20 +727,23 @@ function observeEfficiencyWorking(x: YieldHint, ev: Evaluator): string[] {
 }
 
 /** The simulation's main product against a planned or measured yield of it. */
-function yieldSimLabel(y: YieldFact, ev: Evaluator): string {
+/** The simulation's main product over the run: its molar mass, mol formed, electrons passed and current efficiency (%). */
+function simulatedMain(ev: Evaluator) {
   const main = ev.m.simulation!.mainProduct!
   const { formed, electrons } = ev.simSums!
-  const simCe = electrons > 0 ? ((formed * main.electrons) / electrons) * 100 : 0
-  return y.kind === 'expect' ? `sim: ${fmt((formed + y.initialMol) * parseFormula(main.formula).molarMass)} g at CE ${fmt(simCe)} %` : `sim CE ${fmt(simCe)} %`
+  return { main, M: parseFormula(main.formula).molarMass, formed, electrons, ce: electrons > 0 ? ((formed * main.electrons) / electrons) * 100 : 0 }
+}
+
+function yieldSimLabel(y: YieldFact, ev: Evaluator): string {
+  const { M, formed, ce } = simulatedMain(ev)
+  return y.kind === 'expect' ? `sim: ${fmt((formed + y.initialMol) * M)} g at CE ${fmt(ce)} %` : `sim CE ${fmt(ce)} %`
 }
 
 function yieldSimWorking(y: YieldFact, ev: Evaluator): string[] {
-  const main = ev.m.simulation!.mainProduct!
-  const M = parseFormula(main.formula).molarMass
-  const { formed, electrons } = ev.simSums!
+  const { main, M, formed, electrons, ce } = simulatedMain(ev)
   return [
     `simulated ${prettyFormula(main.formula)} formed: ${fmt(formed, 4)} mol = ${fmt(formed * M, 4)} g` + (y.initialMol > 0 ? `, plus ${fmt(y.initialMol * M, 4)} g charged` : ''),
-    `simulated current efficiency: ${fmt(formed, 4)} mol × ${main.electrons} ÷ ${fmt(electrons, 4)} mol e⁻ = ${fmt(electrons > 0 ? ((formed * main.electrons) / electrons) * 100 : 0, 3)} %`,
+    `simulated current efficiency: ${fmt(formed, 4)} mol × ${main.electrons} ÷ ${fmt(electrons, 4)} mol e⁻ = ${fmt(ce, 3)} %`,
   ]
 }
 
