@@ -476,30 +476,83 @@ function bookkeep(input: EngineInput, r: EngineResult, full: boolean): Book {
   const hydroxideOf = new Map<string, Map<number, Described>>()
   let hydrogenAtCathode: Described | undefined
   let oxygenAtAnode: Described | undefined
+  // The ledger and the notes of the step being booked, and the helpers that write into them (made
+  // once, not again for every step).
+  let ledger: Ledger | undefined
+  let notes: string[] | undefined
+  const note = (text: string) => (notes ??= []).push(text)
+  const put = (p: Omit<Product, 'mol' | 'mol100'>, mol: number) => {
+    ledger?.add(p, mol)
+    total.add(p, mol)
+  }
+  /** Hydrogen (cathode) or oxygen (anode) from water takes the electrons the main reaction leaves. */
+  const sideHydrogen = (electrons: number, main: string) => {
+    let d = hydrogenAfter.get(main)
+    if (!d) hydrogenAfter.set(main, (d = { formula: 'H2', electrons: 2, compartment: c, origin: 'cathode', gas: true, equation: '2 H₂O + 2 e⁻ → H₂ + 2 OH⁻', reason: `hydrogen takes the current ${main} leaves` }))
+    put(d, electrons / 2)
+  }
+  const sideOxygen = (electrons: number, main: string) => {
+    let d = oxygenAfter.get(main)
+    if (!d) oxygenAfter.set(main, (d = { formula: 'O2', electrons: 4, compartment: a, origin: 'anode', gas: true, equation: '2 H₂O → O₂ + 4 H⁺ + 4 e⁻', reason: `oxygen takes the current ${main} leaves` }))
+    put(d, electrons / 4)
+  }
+
+  /** Mol of electrons a stated reaction takes, up to `wanted`, as far as the ions it uses last; draws them down. */
+  function statedShare(r: ElectrodeReaction, side: Ions, wanted: number, where: string): number {
+    let share = wanted
+    for (const u of r.statedUses ?? []) {
+      const ion = (u.kind === 'cation' ? side.cations : side.anions).get(u.key)
+      share = Math.min(share, (ion?.mol ?? 0) / u.perElectron)
+    }
+    for (const u of r.statedUses ?? []) {
+      const ion = (u.kind === 'cation' ? side.cations : side.anions).get(u.key)
+      if (ion) ion.mol -= share * u.perElectron
+    }
+    if (share < wanted - 1e-15) note(`the ions the stated ${r.role} reaction uses in ${where} ran out; ${r.role === 'anode' ? 'oxygen' : 'hydrogen'} takes the rest of the current`)
+    return Math.max(0, share)
+  }
+
+  /** Protons left in the anode compartment: carbonate takes them first, then they stay as acid. */
+  function anodeAcid(h: number) {
+    let left = h
+    const co3 = aIons.anions.get('CO3')
+    if (co3 && co3.mol > 0 && left > 0) {
+      const t = Math.min(co3.mol, left)
+      co3.mol -= t
+      const hco3 = aIons.anions.get('HCO3') ?? { mol: 0, charge: -1 }
+      hco3.mol += t
+      aIons.anions.set('HCO3', hco3)
+      left -= t
+      if (co3.mol <= 1e-15 && t > 0) note(`the carbonate in ${a} has turned to bicarbonate; CO₂ comes off from here on`)
+    }
+    const hco3 = aIons.anions.get('HCO3')
+    if (hco3 && hco3.mol > 0 && left > 0) {
+      const t = Math.min(hco3.mol, left)
+      hco3.mol -= t
+      left -= t
+      put({ formula: 'CO2', electrons: 1, compartment: a, origin: 'follow-on', gas: true, equation: 'H⁺ + HCO₃⁻ → CO₂ + H₂O', reason: `the protons made at the anode acidify the bicarbonate in ${a}` }, t)
+      if (hco3.mol <= 1e-15) note(`the bicarbonate in ${a} is used up; the ${a} turns acidic`)
+    }
+    if (left > 0) {
+      const an = crossingAnion(aIons)
+      if (an && an[0] !== 'HCO3' && an[0] !== 'CO3') {
+        const acid = acidFormula(an[0], an[1].charge)
+        put({ formula: acid, electrons: -an[1].charge, compartment: a, origin: 'follow-on', gas: false, equation: `${-an[1].charge === 1 ? '' : -an[1].charge + ' '}H⁺ + ${an[0]}${sup(an[1].charge)} → ${acid}`, reason: `the protons made at the anode stay in ${a} with its ${an[0]}${sup(an[1].charge)}` }, left / -an[1].charge)
+      }
+      const hIon = aIons.cations.get('H') ?? { mol: 0, charge: 1 }
+      hIon.mol += left
+      aIons.cations.set('H', hIon)
+    }
+  }
   for (const s of input.steps) {
     // At 100 % (full) only the totals are used: no ledger per step.
-    const ledger = full ? undefined : new Ledger(key)
-    const notes: string[] = []
-    const put = (p: Omit<Product, 'mol' | 'mol100'>, mol: number) => {
-      ledger?.add(p, mol)
-      total.add(p, mol)
-    }
+    ledger = full ? undefined : new Ledger(key)
+    notes = undefined
     if (s.chargeC === undefined || !(s.chargeC > 0)) {
       if (!full) steps.push({ line: s.line, products: [], notes: NO_NOTES })
       continue
     }
     const ne = s.chargeC / FARADAY
-    /** Hydrogen (cathode) or oxygen (anode) from water takes the electrons the main reaction leaves. */
-    const sideHydrogen = (electrons: number, main: string) => {
-      let d = hydrogenAfter.get(main)
-      if (!d) hydrogenAfter.set(main, (d = { formula: 'H2', electrons: 2, compartment: c, origin: 'cathode', gas: true, equation: '2 H₂O + 2 e⁻ → H₂ + 2 OH⁻', reason: `hydrogen takes the current ${main} leaves` }))
-      put(d, electrons / 2)
-    }
-    const sideOxygen = (electrons: number, main: string) => {
-      let d = oxygenAfter.get(main)
-      if (!d) oxygenAfter.set(main, (d = { formula: 'O2', electrons: 4, compartment: a, origin: 'anode', gas: true, equation: '2 H₂O → O₂ + 4 H⁺ + 4 e⁻', reason: `oxygen takes the current ${main} leaves` }))
-      put(d, electrons / 4)
-    }
     const eta = full ? 1 : Math.min(1, Math.max(0, s.efficiency))
     // --- cathode
     let hydroxide = 0 // mol OH⁻ made at the cathode
@@ -511,7 +564,7 @@ function bookkeep(input: EngineInput, r: EngineResult, full: boolean): Book {
       const wanted = (eta * ne) / m.charge
       const dep = soluble ? wanted : Math.min(wanted, ion.mol)
       if (!soluble) ion.mol -= dep
-      if (dep < wanted - 1e-15) notes.push(`${m.element}${sup(m.charge)} in ${c} ran out; the rest of the current evolves hydrogen`)
+      if (dep < wanted - 1e-15) note(`${m.element}${sup(m.charge)} in ${c} ran out; the rest of the current evolves hydrogen`)
       put({ formula: m.element, electrons: m.charge, compartment: c, origin: 'cathode', gas: false, equation: cathode.equation, reason: cathode.reason }, dep)
       const h2e = ne - dep * m.charge
       sideHydrogen(h2e, 'the deposition')
@@ -545,7 +598,7 @@ function bookkeep(input: EngineInput, r: EngineResult, full: boolean): Book {
       const clPerCl2 = r.coupling === 'same' && cathode.kind === 'hydrogen' && cathode.form === 'alkaline' ? 1 : 2
       chlorine = Math.min(wanted, cl.mol / clPerCl2)
       cl.mol -= clPerCl2 * chlorine
-      if (chlorine < wanted - 1e-15) notes.push(`chloride in ${a} ran out; the rest of the current evolves oxygen`)
+      if (chlorine < wanted - 1e-15) note(`chloride in ${a} ran out; the rest of the current evolves oxygen`)
       const o2e = ne - 2 * chlorine
       sideOxygen(o2e, 'the chlorine')
       protons = o2e
@@ -587,7 +640,7 @@ function bookkeep(input: EngineInput, r: EngineResult, full: boolean): Book {
           const [el, v] = cat
           moved = Math.min(carried / v.charge, v.mol)
           v.mol -= moved
-          if (moved * v.charge < carried - 1e-15) notes.push(`${el}${sup(v.charge)} in ${a} ran out; protons carry the rest of the current and the hydroxide stops growing`)
+          if (moved * v.charge < carried - 1e-15) note(`${el}${sup(v.charge)} in ${a} ran out; protons carry the rest of the current and the hydroxide stops growing`)
           const formed = Math.min(moved, hydroxide / v.charge)
           let byCharge = hydroxideOf.get(el)
           if (!byCharge) hydroxideOf.set(el, (byCharge = new Map()))
@@ -618,7 +671,7 @@ function bookkeep(input: EngineInput, r: EngineResult, full: boolean): Book {
           const z = -v.charge
           moved = Math.min(carried / z, v.mol)
           v.mol -= moved
-          if (moved * z < carried - 1e-15) notes.push(`${name}${sup(v.charge)} in ${c} ran out; hydroxide carries the rest of the current`)
+          if (moved * z < carried - 1e-15) note(`${name}${sup(v.charge)} in ${c} ran out; hydroxide carries the rest of the current`)
           const cat = crossing(cIons)
           if (cat) put({ formula: hydroxideFormula(cat[0], cat[1].charge), electrons: cat[1].charge, compartment: c, origin: 'follow-on', gas: false, equation: 'the cations left behind pair with the hydroxide made at the cathode', reason: `${name}${sup(v.charge)} leaves ${c} through the anion-exchange separator` }, (moved * z) / cat[1].charge)
           const acid = acidFormula(name, v.charge)
@@ -626,55 +679,7 @@ function bookkeep(input: EngineInput, r: EngineResult, full: boolean): Book {
         }
       }
     }
-    if (ledger) steps.push({ line: s.line, products: ledger.products, notes: notes.length > 0 ? notes : NO_NOTES })
-
-    /** Mol of electrons a stated reaction takes, up to `wanted`, as far as the ions it uses last; draws them down. */
-    function statedShare(r: ElectrodeReaction, side: Ions, wanted: number, where: string): number {
-      let share = wanted
-      for (const u of r.statedUses ?? []) {
-        const ion = (u.kind === 'cation' ? side.cations : side.anions).get(u.key)
-        share = Math.min(share, (ion?.mol ?? 0) / u.perElectron)
-      }
-      for (const u of r.statedUses ?? []) {
-        const ion = (u.kind === 'cation' ? side.cations : side.anions).get(u.key)
-        if (ion) ion.mol -= share * u.perElectron
-      }
-      if (share < wanted - 1e-15) notes.push(`the ions the stated ${r.role} reaction uses in ${where} ran out; ${r.role === 'anode' ? 'oxygen' : 'hydrogen'} takes the rest of the current`)
-      return Math.max(0, share)
-    }
-
-    /** Protons left in the anode compartment: carbonate takes them first, then they stay as acid. */
-    function anodeAcid(h: number) {
-      let left = h
-      const co3 = aIons.anions.get('CO3')
-      if (co3 && co3.mol > 0 && left > 0) {
-        const t = Math.min(co3.mol, left)
-        co3.mol -= t
-        const hco3 = aIons.anions.get('HCO3') ?? { mol: 0, charge: -1 }
-        hco3.mol += t
-        aIons.anions.set('HCO3', hco3)
-        left -= t
-        if (co3.mol <= 1e-15 && t > 0) notes.push(`the carbonate in ${a} has turned to bicarbonate; CO₂ comes off from here on`)
-      }
-      const hco3 = aIons.anions.get('HCO3')
-      if (hco3 && hco3.mol > 0 && left > 0) {
-        const t = Math.min(hco3.mol, left)
-        hco3.mol -= t
-        left -= t
-        put({ formula: 'CO2', electrons: 1, compartment: a, origin: 'follow-on', gas: true, equation: 'H⁺ + HCO₃⁻ → CO₂ + H₂O', reason: `the protons made at the anode acidify the bicarbonate in ${a}` }, t)
-        if (hco3.mol <= 1e-15) notes.push(`the bicarbonate in ${a} is used up; the ${a} turns acidic`)
-      }
-      if (left > 0) {
-        const an = crossingAnion(aIons)
-        if (an && an[0] !== 'HCO3' && an[0] !== 'CO3') {
-          const acid = acidFormula(an[0], an[1].charge)
-          put({ formula: acid, electrons: -an[1].charge, compartment: a, origin: 'follow-on', gas: false, equation: `${-an[1].charge === 1 ? '' : -an[1].charge + ' '}H⁺ + ${an[0]}${sup(an[1].charge)} → ${acid}`, reason: `the protons made at the anode stay in ${a} with its ${an[0]}${sup(an[1].charge)}` }, left / -an[1].charge)
-        }
-        const hIon = aIons.cations.get('H') ?? { mol: 0, charge: 1 }
-        hIon.mol += left
-        aIons.cations.set('H', hIon)
-      }
-    }
+    if (ledger) steps.push({ line: s.line, products: ledger.products, notes: notes ?? NO_NOTES })
   }
   return { total, steps }
 }
