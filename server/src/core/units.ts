@@ -711,17 +711,17 @@ function binary(fn: string, a: unknown, b: unknown): unknown {
   return UNDISPATCHED
 }
 
-/** A unit's parts as mathjs keeps them (the unit list, and the exponent of each base dimension). */
-interface UnitFields {
-  units: { unit: unknown; prefix: unknown; power: number }[]
+/** A unit's parts as mathjs keeps them (the unit list, the exponent of each base dimension, the value and flags). */
+interface UnitParts {
+  value: number | null
+  units: { unit: { value: number; offset: number }; prefix: { value: number }; power: number }[]
   dimensions: number[]
-  value: unknown
   fixPrefix: boolean
   skipAutomaticSimplification: boolean
 }
 const PREDICTABLE = (math.config as unknown as () => { predictable?: boolean })().predictable === true
 /** A new unit as mathjs's clone() starts one: no value, no units, a fresh array of zero dimensions. */
-const BlankUnit = UnitClass as unknown as new () => UnitFields
+const BlankUnit = UnitClass as unknown as new () => UnitParts
 
 /**
  * `a × b` or `a ÷ b` for a unit with a number value and a number or a unit with a number value, as
@@ -734,10 +734,10 @@ const BlankUnit = UnitClass as unknown as new () => UnitFields
  * mathjs way. A property test compares the results with mathjs's methods field by field.
  */
 function unitProduct(a: Unit, b: Unit | number, divide: boolean): unknown {
-  const x = a as unknown as UnitFields
+  const x = a as unknown as UnitParts
   const av = x.value
   if (typeof av !== 'number' || PREDICTABLE) return undefined
-  const y = typeof b === 'number' ? undefined : (b as unknown as UnitFields)
+  const y = typeof b === 'number' ? undefined : (b as unknown as UnitParts)
   const bv = y ? y.value : b
   if (typeof bv !== 'number') return undefined
   const res = new BlankUnit()
@@ -771,7 +771,7 @@ const BASE_DIMENSIONS = (UnitClass as unknown as { BASE_DIMENSIONS: unknown[] })
  * the results field by field over every unit.
  */
 function scaledUnit(unit: Unit, x: number): Unit | undefined {
-  const u = unit as unknown as UnitParts & { dimensions: number[] }
+  const u = unit as unknown as UnitParts
   let dimensional = false
   for (const d of u.dimensions) if (d !== 0) dimensional = true
   if (!dimensional) return undefined
@@ -783,9 +783,9 @@ function scaledUnit(unit: Unit, x: number): Unit | undefined {
   // in place and is not used here); a frozen part stays as it is whatever is done with the value.
   // A test runs mathjs's operations on such values against mathjs's own product.
   const shared = sharedParts(unit)
-  const res = Object.create(UnitClass.prototype) as UnitFields
-  res.fixPrefix = (unit as unknown as UnitFields).fixPrefix
-  res.skipAutomaticSimplification = (unit as unknown as UnitFields).skipAutomaticSimplification
+  const res = Object.create(UnitClass.prototype) as UnitParts
+  res.fixPrefix = u.fixPrefix
+  res.skipAutomaticSimplification = u.skipAutomaticSimplification
   res.units = shared.units
   res.dimensions = shared.dimensions
   res.value = shared.one * x
@@ -794,7 +794,7 @@ function scaledUnit(unit: Unit, x: number): Unit | undefined {
 
 /** What every number times a unit name shares: its unit list and dimensions as clone() copies them, and the unit's normalised 1. */
 interface SharedParts {
-  units: UnitFields['units']
+  units: UnitParts['units']
   dimensions: number[]
   one: number
 }
@@ -805,8 +805,8 @@ function sharedParts(unit: Unit): SharedParts {
     // Only a unit name's value (kept by unitSymbolValue) is worth sharing parts for; a unit made
     // on the way (`cm^2` in `200 cm^2`) gets its own copy, as clone() would make it.
     const share = symbolValues.has(unit)
-    const u = unit as unknown as UnitParts & { dimensions: number[] }
-    const units = (unit as unknown as UnitFields).units.map((part) => {
+    const u = unit as unknown as UnitParts
+    const units = u.units.map((part) => {
       const copy = { unit: part.unit, prefix: part.prefix, power: part.power }
       return share ? Object.freeze(copy) : copy
     })
@@ -815,7 +815,7 @@ function sharedParts(unit: Unit): SharedParts {
     let one = 1
     for (const part of u.units) one = one * Math.pow(part.unit.value * part.prefix.value, part.power)
     if (!share) return { units, dimensions, one }
-    p = { units: Object.freeze(units) as unknown as UnitFields['units'], dimensions: Object.freeze(dimensions) as unknown as number[], one }
+    p = { units: Object.freeze(units) as unknown as UnitParts['units'], dimensions: Object.freeze(dimensions) as unknown as number[], one }
     sharedPartsOf.set(unit, p)
   }
   return p
@@ -1147,11 +1147,6 @@ export function inKindUnit(v: Value, kind: Kind): number {
   const n = numberIn(v, kindUnitRefs.get(kind)!)
   if (own) numbers.set(v, n)
   return n
-}
-
-interface UnitParts {
-  value: number | null
-  units: { unit: { value: number; offset: number }; prefix: { value: number }; power: number }[]
 }
 
 /**
