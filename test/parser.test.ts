@@ -2,7 +2,7 @@
 // nodes without stopping the parse.
 import fc from 'fast-check'
 import { describe, expect, it } from 'vitest'
-import { commentStart, parse, wordAt } from '../server/src/core/parser'
+import { commentStart, IDENT_AT, identEnd, LETTERS_AT, lettersEnd, parse, trailingIn, WORD_AT, wordAt, wordEnd } from '../server/src/core/parser'
 import { isWhiteSpace } from '../server/src/core/text'
 import type { LineNode } from '../server/src/core/syntax'
 import { covered, marked } from './support/markers'
@@ -227,6 +227,51 @@ describe('clause words found in place', () => {
         expect(wordAt(t, i, words), `${JSON.stringify(t)} at ${i}`).toBe(pattern.test(t))
       }),
       { numRuns: 4000, seed: 53 },
+    )
+  })
+})
+
+describe('tokens read in place', () => {
+  // The oracles are the patterns the parser ran before (sticky, at the place).
+  const pieces = fc.constantFrom('a', 'Z', '_', '-', '9', ' ', '\t', '\u00a0', ',', ':', '#', 'é', '.', 'in', 'x-y', '\u2028')
+  const text = fc.array(pieces, { maxLength: 8 }).map((p) => p.join(''))
+  const endByPattern = (re: RegExp, t: string, i: number) => {
+    re.lastIndex = i
+    const m = re.exec(t)
+    return m ? i + m[0].length : i
+  }
+  it('a name, a word and letters end where IDENT_AT, WORD_AT and LETTERS_AT end, at any place of any text', () => {
+    fc.assert(
+      fc.property(text, fc.nat({ max: 12 }), (t, at) => {
+        const i = Math.min(at, t.length)
+        const where = `${JSON.stringify(t)} at ${i}`
+        expect(identEnd(t, i), where).toBe(endByPattern(IDENT_AT, t, i))
+        expect(wordEnd(t, i), where).toBe(endByPattern(WORD_AT, t, i))
+        expect(lettersEnd(t, i), where).toBe(endByPattern(LETTERS_AT, t, i))
+      }),
+      { numRuns: 4000, seed: 61 },
+    )
+  })
+  it('a trailing `in NAME` is found where `\\s+in\\s+([A-Za-z_][\\w-]*)\\s*$` finds it', () => {
+    const pattern = /\s+in\s+([A-Za-z_][\w-]*)\s*$/
+    // Near matches built part by part (amount, space, `in`, space, name, space), each part sometimes wrong.
+    const tail = fc
+      .tuple(
+        fc.constantFrom('25 g', '', 'in', '(1 mol)', '2 in', 'x'),
+        fc.constantFrom(' ', '  ', '\t', '\u00a0', ''),
+        fc.constantFrom('in', 'i', 'inn', 'n', 'In', ''),
+        fc.constantFrom(' ', '\t ', '\u00a0', ''),
+        fc.constantFrom('product', '_x', '9a', '-a', 'a-b', 'a.b', 'é', 'in', ''),
+        fc.constantFrom('', ' ', ' \t', 'x', '.'),
+      )
+      .map((p) => p.join(''))
+    fc.assert(
+      fc.property(tail, (t) => {
+        const m = pattern.exec(t)
+        const expected = m ? { from: m.index, nameStart: t.length - m[0].length + m[0].lastIndexOf(m[1]), nameEnd: t.length - m[0].length + m[0].lastIndexOf(m[1]) + m[1].length } : undefined
+        expect(trailingIn(t), JSON.stringify(t)).toEqual(expected)
+      }),
+      { numRuns: 6000, seed: 67 },
     )
   })
 })

@@ -130,12 +130,47 @@ export const MAX_STATEMENT_LENGTH = 32_768
 const FREE_TEXT: ReadonlySet<string> = new Set(['note', 'run', 'handling', 'material'])
 const STATEMENT_SET: ReadonlySet<string> = new Set(STATEMENT_KEYWORDS)
 const CELL_SET: ReadonlySet<string> = new Set(CELL_KEYWORDS)
-// Sticky patterns (flag y) match at lastIndex: no copy of the rest of the line per token, so a
-// megabyte line is read in time proportional to its length.
-const IDENT_RE = /[A-Za-z_][A-Za-z0-9_-]*/y
-const WORD_RE = /[^\s,:]+/y
-const LETTERS_RE = /[A-Za-z-]+/y
+// Tokens are read in place, by index from the cursor: no copy of the rest of the line and no match
+// array per token, so a megabyte line is read in time proportional to its length. Each reader is
+// checked by a test against the pattern it stands for (IDENT_AT, WORD_AT, LETTERS_AT).
+export const IDENT_AT = /[A-Za-z_][A-Za-z0-9_-]*/y
+export const WORD_AT = /[^\s,:]+/y
+export const LETTERS_AT = /[A-Za-z-]+/y
 const SPACE_OR_STOP_RE = /[\s,:]/g
+
+const isLetter = (c: number) => (c >= 65 && c <= 90) || (c >= 97 && c <= 122)
+
+/** Where a name as IDENT_AT reads it, starting at `i`, ends; `i` when none starts there. */
+export function identEnd(s: string, i: number): number {
+  const first = s.charCodeAt(i)
+  if (!(isLetter(first) || first === 95)) return i
+  let j = i + 1
+  for (; j < s.length; j++) {
+    const c = s.charCodeAt(j)
+    if (!(isLetter(c) || (c >= 48 && c <= 57) || c === 95 || c === 45)) break
+  }
+  return j
+}
+
+/** Where a word as WORD_AT reads it (up to white space, a comma or a colon), starting at `i`, ends. */
+export function wordEnd(s: string, i: number): number {
+  let j = i
+  for (; j < s.length; j++) {
+    const c = s.charCodeAt(j)
+    if (c === 44 /* , */ || c === 58 /* : */ || isWhiteSpace(c)) break
+  }
+  return j
+}
+
+/** Where letters and hyphens as LETTERS_AT reads them, starting at `i`, end. */
+export function lettersEnd(s: string, i: number): number {
+  let j = i
+  for (; j < s.length; j++) {
+    const c = s.charCodeAt(j)
+    if (!(isLetter(c) || c === 45)) break
+  }
+  return j
+}
 
 /** Where a keyword (`[A-Za-z][A-Za-z-]*`) that starts at `from` ends; `from` when none starts there. */
 function keywordEnd(s: string, from: number): number {
@@ -346,13 +381,13 @@ function parseLine(raw: string, base: number, line: number, inCell: boolean): Li
         const formula = s.word(`a substance and amount, e.g. \`${kwText} KOH 25 g in catholyte\``)
         s.ws1('an amount')
         const restTok = s.restTok('an amount, e.g. `25 g`')
-        const inMatch = /\s+in\s+([A-Za-z_][\w-]*)\s*$/.exec(restTok.text)
-        const qEnd = inMatch ? restTok.text.length - inMatch[0].length : restTok.text.length
-        const { main, alternate } = splitAlternate({ text: restTok.text.slice(0, qEnd), span: { start: restTok.span.start, end: restTok.span.start + qEnd } })
+        const inAt = trailingIn(restTok.text)
+        const qEnd = inAt ? inAt.from : restTok.text.length
+        const { main, alternate } = splitAlternate(qEnd === restTok.text.length ? restTok : { text: restTok.text.slice(0, qEnd), span: { start: restTok.span.start, end: restTok.span.start + qEnd } })
         let compartment: Tok | undefined
-        if (inMatch) {
-          const nameStart = restTok.span.start + restTok.text.length - inMatch[1].length
-          compartment = { text: inMatch[1], span: { start: nameStart, end: nameStart + inMatch[1].length } }
+        if (inAt) {
+          const nameStart = restTok.span.start + inAt.nameStart
+          compartment = { text: restTok.text.slice(inAt.nameStart, inAt.nameEnd), span: { start: nameStart, end: restTok.span.start + inAt.nameEnd } }
         }
         return { kind: kwText === 'expect' ? 'expect' : 'observe', line, indent, span, comment, keyword, formula, quantity: main, alternate, compartment }
       }
@@ -419,6 +454,30 @@ function parseLine(raw: string, base: number, line: number, inCell: boolean): Li
         : {}),
     }
   }
+}
+
+/**
+ * A trailing `in NAME` (`25 g in catholyte`), as the pattern `\s+in\s+([A-Za-z_][\w-]*)\s*$` finds it:
+ * where the match starts (`from`) and where the name stands. Read backwards from the end by index
+ * (a test checks it against the pattern).
+ */
+export function trailingIn(t: string): { from: number; nameStart: number; nameEnd: number } | undefined {
+  let e = t.length
+  while (e > 0 && isWhiteSpace(t.charCodeAt(e - 1))) e--
+  let n = e
+  for (; n > 0; n--) {
+    const c = t.charCodeAt(n - 1)
+    if (!(isLetter(c) || (c >= 48 && c <= 57) || c === 95 || c === 45)) break
+  }
+  // The name starts with a letter or `_`, right after white space.
+  if (n === e || !(isLetter(t.charCodeAt(n)) || t.charCodeAt(n) === 95)) return undefined
+  let w = n
+  while (w > 0 && isWhiteSpace(t.charCodeAt(w - 1))) w--
+  if (w === n || w < 2 || t.charCodeAt(w - 1) !== 110 /* n */ || t.charCodeAt(w - 2) !== 105 /* i */) return undefined
+  let from = w - 2
+  if (from === 0 || !isWhiteSpace(t.charCodeAt(from - 1))) return undefined
+  while (from > 0 && isWhiteSpace(t.charCodeAt(from - 1))) from--
+  return { from, nameStart: n, nameEnd: e }
 }
 
 function parseChargeItem(s: Cursor, t: Tok): ChargeItem {
@@ -488,70 +547,107 @@ export function splitAlternate(t: Tok): { main: Tok; alternate?: Tok } {
   }
 }
 
+// Where the pieces of a step line stand: [start, end) pairs of offsets in the line, filled by
+// parseClauses (not re-entrant, like the cursor), so that splitting a line makes no tokens.
+const pieces: number[] = []
+const parts: number[] = []
+
+/**
+ * A step's clauses: the text after `step LABEL:` split at commas outside parentheses, each piece
+ * split again before each standalone clause word (`current 2 A for 3 h`), every part trimmed.
+ * Read by offsets in the line: only the clauses' own tokens are made.
+ */
 function parseClauses(s: Cursor): Clause[] {
   const clauses: Clause[] = []
-  const body = s.rest()
-  if (body.text.trim() === '') throw new LineError('expected what the step does, e.g. `current 2 A for 3 h`', s.pos)
-  for (const piece of s.splitTop(',', body)) {
-    // A clause word may follow another clause without a comma: `current 2 A for 3 h`.
-    for (const part of splitWords(piece, STEP_CLAUSES)) {
-      // `WORD VALUE`: the word as `[A-Za-z][A-Za-z-]*`, then white space, then the value, read by
-      // index (the pattern `^([A-Za-z][A-Za-z-]*)(\s*)(.*)$` before).
-      const text = part.text
-      const kwEnd = keywordEnd(text, 0)
-      // The clause word as the one shared string (the model compares it on every step).
-      const known = kwEnd > 0 ? STEP_CLAUSES.find((c) => c.length === kwEnd && text.startsWith(c)) : undefined
-      if (!known) {
-        const word = kwEnd > 0 ? text.slice(0, kwEnd) : text.split(/\s/)[0]
-        const guess = closest(word, STEP_CLAUSES)
-        const at = part.span.start - s.base
-        throw new LineError(
-          `unknown step clause \`${word}\`; expected ${STEP_CLAUSES.map((c) => `\`${c}\``).join(', ')}`,
-          at,
-          at + word.length,
-          guess ? { start: at, end: at + word.length, newText: guess, title: `Change to \`${guess}\`` } : undefined,
-        )
-      }
-      const kwTok: Tok = { text: known, span: { start: part.span.start, end: part.span.start + known.length } }
-      let valueAt = kwEnd
-      while (valueAt < text.length && isSpace(text, valueAt)) valueAt++
-      const exprStart = part.span.start + valueAt
-      if (valueAt === text.length) {
-        throw new LineError(`\`${known}\` needs a value`, kwTok.span.start - s.base, kwTok.span.end - s.base)
-      }
-      const value = text.slice(valueAt)
-      const on = known === 'current' ? /\s+on\s+(anode|cathode|separator)$/.exec(value) : null
-      const exprText = on ? value.slice(0, on.index) : value
-      const clause: Clause = { span: part.span, keyword: kwTok, expr: { text: exprText, span: { start: exprStart, end: exprStart + exprText.length } } }
-      if (on) {
-        const onStart = exprStart + value.length - on[1].length
-        clause.on = { text: on[1], span: { start: onStart, end: onStart + on[1].length } }
-      }
-      clauses.push(clause)
+  const line = s.s
+  const from = s.pos
+  const to = line.length
+  s.pos = to
+  let blank = true
+  for (let i = from; i < to && blank; i++) blank = isWhiteSpace(line.charCodeAt(i))
+  if (blank) throw new LineError('expected what the step does, e.g. `current 2 A for 3 h`', to)
+  // Pieces between commas at the top level (as splitTop splits), trimmed; an empty one is an error.
+  pieces.length = 0
+  let depth = 0
+  let at = from
+  for (let i = from; i < to; i++) {
+    const c = line.charCodeAt(i)
+    if (c === 40 /* ( */ || c === 91 /* [ */) depth++
+    else if (c === 41 /* ) */ || c === 93 /* ] */) depth--
+    else if (c === 44 /* , */ && depth <= 0) {
+      pushTrimmed(pieces, line, at, i)
+      at = i + 1
     }
+  }
+  pushTrimmed(pieces, line, at, to)
+  for (let k = 0; k < pieces.length; k += 2) {
+    if (pieces[k] === pieces[k + 1]) throw new LineError('an empty item between `,`', pieces[k], pieces[k] + 1)
+  }
+  for (let k = 0; k < pieces.length; k += 2) {
+    splitClauseWords(line, pieces[k], pieces[k + 1])
+    for (let p = 0; p < parts.length; p += 2) clauses.push(clauseAt(s, line, parts[p], parts[p + 1]))
   }
   return clauses
 }
 
-/** Split a token before each standalone clause word outside parentheses. */
-function splitWords(t: Tok, words: readonly string[]): Tok[] {
-  const out: Tok[] = []
+/** [a, b) trimmed of white space, as a pair of offsets. */
+function pushTrimmed(out: number[], line: string, a: number, b: number): void {
+  while (a < b && isWhiteSpace(line.charCodeAt(a))) a++
+  while (b > a && isWhiteSpace(line.charCodeAt(b - 1))) b--
+  out.push(a, b)
+}
+
+/** Split [a, b) before each standalone clause word outside parentheses into `parts` (trimmed, none empty). */
+function splitClauseWords(line: string, a: number, b: number): void {
+  parts.length = 0
   let depth = 0
-  let from = 0
-  const s = t.text
-  for (let i = 0; i < s.length; i++) {
-    const c = s.charCodeAt(i)
+  let from = a
+  for (let i = a; i < b; i++) {
+    const c = line.charCodeAt(i)
     if (c === 40 /* ( */ || c === 91 /* [ */) depth++
     else if (c === 41 /* ) */ || c === 93 /* ] */) depth--
-    else if (depth === 0 && i > from && isSpace(s, i - 1) && wordAt(s, i, words)) {
-      const part = trimTok(t, from, i)
-      if (part.text.length > 0) out.push(part)
+    else if (depth === 0 && i > from && isSpace(line, i - 1) && wordAt(line, i, STEP_CLAUSES, b)) {
+      pushTrimmed(parts, line, from, i)
+      if (parts[parts.length - 2] === parts[parts.length - 1]) parts.length -= 2
       from = i
     }
   }
-  const last = trimTok(t, from, s.length)
-  if (last.text.length > 0) out.push(last)
-  return out
+  pushTrimmed(parts, line, from, b)
+  if (parts[parts.length - 2] === parts[parts.length - 1]) parts.length -= 2
+}
+
+/** One clause, `WORD VALUE`, standing at [a, b) of the line. */
+function clauseAt(s: Cursor, line: string, a: number, b: number): Clause {
+  // The word as `[A-Za-z][A-Za-z-]*`, then white space, then the value, read by index.
+  const kwEnd = Math.min(keywordEnd(line, a), b)
+  // The clause word as the one shared string (the model compares it on every step).
+  let known: (typeof STEP_CLAUSES)[number] | undefined
+  if (kwEnd > a) for (const c of STEP_CLAUSES) if (c.length === kwEnd - a && line.startsWith(c, a)) known = c
+  if (!known) {
+    const word = kwEnd > a ? line.slice(a, kwEnd) : line.slice(a, b).split(/\s/)[0]
+    const guess = closest(word, STEP_CLAUSES)
+    throw new LineError(
+      `unknown step clause \`${word}\`; expected ${STEP_CLAUSES.map((c) => `\`${c}\``).join(', ')}`,
+      a,
+      a + word.length,
+      guess ? { start: a, end: a + word.length, newText: guess, title: `Change to \`${guess}\`` } : undefined,
+    )
+  }
+  const base = s.base
+  const kwTok: Tok = { text: known, span: { start: base + a, end: base + a + known.length } }
+  let valueAt = kwEnd
+  while (valueAt < b && isSpace(line, valueAt)) valueAt++
+  if (valueAt === b) throw new LineError(`\`${known}\` needs a value`, a, a + known.length)
+  const value = line.slice(valueAt, b)
+  const exprStart = base + valueAt
+  const on = known === 'current' ? /\s+on\s+(anode|cathode|separator)$/.exec(value) : null
+  const exprText = on ? value.slice(0, on.index) : value
+  const clause: Clause = { span: { start: base + a, end: base + b }, keyword: kwTok, expr: { text: exprText, span: { start: exprStart, end: exprStart + exprText.length } } }
+  if (on) {
+    const onStart = exprStart + value.length - on[1].length
+    clause.on = { text: on[1], span: { start: onStart, end: onStart + on[1].length } }
+  }
+  return clause
 }
 
 /**
@@ -559,10 +655,11 @@ function splitWords(t: Tok, words: readonly string[]): Tok[] {
  * comparing in place, without running a pattern for every space of a step line. A test checks it
  * against that pattern.
  */
-export function wordAt(s: string, i: number, words: readonly string[]): boolean {
+export function wordAt(s: string, i: number, words: readonly string[], end = s.length): boolean {
   for (const w of words) {
-    if (!s.startsWith(w, i)) continue
-    const c = s.charCodeAt(i + w.length)
+    if (i + w.length > end || !s.startsWith(w, i)) continue
+    // What follows the word, within [0, end): past `end` reads as nothing.
+    const c = i + w.length < end ? s.charCodeAt(i + w.length) : NaN
     const wordChar = c === 95 || c === 45 || (c >= 48 && c <= 57) || (c >= 65 && c <= 90) || (c >= 97 && c <= 122)
     if (!wordChar) return true
   }
@@ -610,27 +707,20 @@ class Cursor {
     this.ws()
   }
 
-  /** `re` is sticky (flag y): it matches at the cursor without copying the rest of the line. */
-  private match(re: RegExp): string | null {
-    re.lastIndex = this.pos
-    const m = re.exec(this.s)
-    return m ? m[0] : null
-  }
-
   ident(what: string): Tok {
-    const m = this.match(IDENT_RE)
-    if (!m) throw new LineError(`expected ${what}`, this.pos, this.nextSpace())
-    const t = this.tok(this.pos, this.pos + m.length)
-    this.pos += m.length
+    const end = identEnd(this.s, this.pos)
+    if (end === this.pos) throw new LineError(`expected ${what}`, this.pos, this.nextSpace())
+    const t = this.tok(this.pos, end)
+    this.pos = end
     return t
   }
 
   /** A word: anything up to white space, a comma or a colon. */
   word(what: string): Tok {
-    const m = this.match(WORD_RE)
-    if (!m) throw new LineError(`expected ${what}`, this.pos, this.nextSpace())
-    const t = this.tok(this.pos, this.pos + m.length)
-    this.pos += m.length
+    const end = wordEnd(this.s, this.pos)
+    if (end === this.pos) throw new LineError(`expected ${what}`, this.pos, this.nextSpace())
+    const t = this.tok(this.pos, end)
+    this.pos = end
     return t
   }
 
@@ -654,18 +744,20 @@ class Cursor {
   }
 
   kw(word: string): void {
-    const m = this.match(LETTERS_RE)
-    if (m !== word) {
-      // Offer the keyword only for a near miss (`betwen`), not for any word that happens to stand there.
-      const near = m && closest(m, [word])
-      throw new LineError(
-        `expected \`${word}\`${m ? `, found \`${m}\`` : ''}`,
-        this.pos,
-        this.pos + (m?.length ?? 1),
-        near ? { start: this.pos, end: this.pos + m.length, newText: word, title: `Change to \`${word}\`` } : undefined,
-      )
+    const end = lettersEnd(this.s, this.pos)
+    if (end - this.pos === word.length && this.s.startsWith(word, this.pos)) {
+      this.pos = end
+      return
     }
-    this.pos += word.length
+    const m = end > this.pos ? this.s.slice(this.pos, end) : null
+    // Offer the keyword only for a near miss (`betwen`), not for any word that happens to stand there.
+    const near = m && closest(m, [word])
+    throw new LineError(
+      `expected \`${word}\`${m ? `, found \`${m}\`` : ''}`,
+      this.pos,
+      this.pos + (m?.length ?? 1),
+      near ? { start: this.pos, end: this.pos + m.length, newText: word, title: `Change to \`${word}\`` } : undefined,
+    )
   }
 
   lit(ch: string, what: string): void {

@@ -821,10 +821,18 @@ function sharedParts(unit: Unit): SharedParts {
   return p
 }
 
+/** A power beyond the cap, or not a number (NaN). */
+function tooBigPower(p: number): boolean {
+  return !(Math.abs(p) <= MAX_UNIT_POWER)
+}
+
 function refuseHugePowers(v: unknown): unknown {
   if (!isUnit(v)) return v
-  const tooBig = (p: number) => !(Math.abs(p) <= MAX_UNIT_POWER)
-  if (v.units.some((u) => tooBig(u.power)) || v.dimensions.some(tooBig)) {
+  // Loops, not some() with a closure: this runs for every value of every analysis.
+  let huge = false
+  for (let i = 0; i < v.units.length && !huge; i++) huge = tooBigPower(v.units[i].power)
+  for (let i = 0; i < v.dimensions.length && !huge; i++) huge = tooBigPower(v.dimensions[i])
+  if (huge) {
     let units = v.formatUnits()
     if (units.length > 40) units = `${units.slice(0, 40)}…`
     throw new Error(`a unit raised to a power beyond ${MAX_UNIT_POWER} (${units}) is not allowed`)
