@@ -548,9 +548,12 @@ export function splitAlternate(t: Tok): { main: Tok; alternate?: Tok } {
 }
 
 // Where the pieces of a step line stand: [start, end) pairs of offsets in the line, filled by
-// parseClauses (not re-entrant, like the cursor), so that splitting a line makes no tokens.
+// parseClauses (not re-entrant, like the cursor), so that splitting a line makes no tokens. The
+// arrays keep their room from line to line; the counts say how much of them is in use.
 const pieces: number[] = []
+let pieceCount = 0
 const parts: number[] = []
+let partCount = 0
 
 /**
  * A step's clauses: the text after `step LABEL:` split at commas outside parentheses, each piece
@@ -567,7 +570,7 @@ function parseClauses(s: Cursor): Clause[] {
   for (let i = from; i < to && blank; i++) blank = isWhiteSpace(line.charCodeAt(i))
   if (blank) throw new LineError('expected what the step does, e.g. `current 2 A for 3 h`', to)
   // Pieces between commas at the top level (as splitTop splits), trimmed; an empty one is an error.
-  pieces.length = 0
+  pieceCount = 0
   let depth = 0
   let at = from
   for (let i = from; i < to; i++) {
@@ -575,31 +578,36 @@ function parseClauses(s: Cursor): Clause[] {
     if (c === 40 /* ( */ || c === 91 /* [ */) depth++
     else if (c === 41 /* ) */ || c === 93 /* ] */) depth--
     else if (c === 44 /* , */ && depth <= 0) {
-      pushTrimmed(pieces, line, at, i)
+      pieceCount = putTrimmed(pieces, pieceCount, line, at, i)
       at = i + 1
     }
   }
-  pushTrimmed(pieces, line, at, to)
-  for (let k = 0; k < pieces.length; k += 2) {
+  pieceCount = putTrimmed(pieces, pieceCount, line, at, to)
+  for (let k = 0; k < pieceCount; k += 2) {
     if (pieces[k] === pieces[k + 1]) throw new LineError('an empty item between `,`', pieces[k], pieces[k] + 1)
   }
-  for (let k = 0; k < pieces.length; k += 2) {
+  for (let k = 0; k < pieceCount; k += 2) {
     splitClauseWords(line, pieces[k], pieces[k + 1])
-    for (let p = 0; p < parts.length; p += 2) clauses.push(clauseAt(s, line, parts[p], parts[p + 1]))
+    for (let p = 0; p < partCount; p += 2) clauses.push(clauseAt(s, line, parts[p], parts[p + 1]))
   }
+  // A line of thousands of commas does not leave its room behind.
+  if (pieces.length > 256) pieces.length = 0
+  if (parts.length > 256) parts.length = 0
   return clauses
 }
 
-/** [a, b) trimmed of white space, as a pair of offsets. */
-function pushTrimmed(out: number[], line: string, a: number, b: number): void {
+/** [a, b) trimmed of white space, written as a pair of offsets at `count` in `out`; the new count. */
+function putTrimmed(out: number[], count: number, line: string, a: number, b: number): number {
   while (a < b && isWhiteSpace(line.charCodeAt(a))) a++
   while (b > a && isWhiteSpace(line.charCodeAt(b - 1))) b--
-  out.push(a, b)
+  out[count] = a
+  out[count + 1] = b
+  return count + 2
 }
 
 /** Split [a, b) before each standalone clause word outside parentheses into `parts` (trimmed, none empty). */
 function splitClauseWords(line: string, a: number, b: number): void {
-  parts.length = 0
+  partCount = 0
   let depth = 0
   let from = a
   for (let i = a; i < b; i++) {
@@ -607,13 +615,13 @@ function splitClauseWords(line: string, a: number, b: number): void {
     if (c === 40 /* ( */ || c === 91 /* [ */) depth++
     else if (c === 41 /* ) */ || c === 93 /* ] */) depth--
     else if (depth === 0 && i > from && isSpace(line, i - 1) && wordAt(line, i, STEP_CLAUSES, b)) {
-      pushTrimmed(parts, line, from, i)
-      if (parts[parts.length - 2] === parts[parts.length - 1]) parts.length -= 2
+      partCount = putTrimmed(parts, partCount, line, from, i)
+      if (parts[partCount - 2] === parts[partCount - 1]) partCount -= 2
       from = i
     }
   }
-  pushTrimmed(parts, line, from, b)
-  if (parts[parts.length - 2] === parts[parts.length - 1]) parts.length -= 2
+  partCount = putTrimmed(parts, partCount, line, from, b)
+  if (parts[partCount - 2] === parts[partCount - 1]) partCount -= 2
 }
 
 /** One clause, `WORD VALUE`, standing at [a, b) of the line. */

@@ -744,8 +744,17 @@ function unitProduct(a: Unit, b: Unit | number, divide: boolean): unknown {
   res.fixPrefix = x.fixPrefix
   res.skipAutomaticSimplification = y ? false : x.skipAutomaticSimplification
   const units = res.units
-  for (const u of x.units) units.push({ unit: u.unit, prefix: u.prefix, power: u.power })
-  if (y) for (const u of y.units) units.push({ unit: u.unit, prefix: u.prefix, power: divide ? -u.power : u.power })
+  // Indexed loops (the lists may be frozen: see scaledUnit).
+  for (let i = 0; i < x.units.length; i++) {
+    const u = x.units[i]
+    units.push({ unit: u.unit, prefix: u.prefix, power: u.power })
+  }
+  if (y) {
+    for (let i = 0; i < y.units.length; i++) {
+      const u = y.units[i]
+      units.push({ unit: u.unit, prefix: u.prefix, power: divide ? -u.power : u.power })
+    }
+  }
   // The constructor's dimensions are a fresh array of zeros, one per base dimension.
   const dims = res.dimensions
   let dimensionless = true
@@ -772,11 +781,16 @@ const BASE_DIMENSIONS = (UnitClass as unknown as { BASE_DIMENSIONS: unknown[] })
  */
 function scaledUnit(unit: Unit, x: number): Unit | undefined {
   const u = unit as unknown as UnitParts
+  // Indexed loops: the lists may be frozen (shared), and a for-of over a frozen array makes an
+  // iterator result per element even when optimized (measured).
   let dimensional = false
-  for (const d of u.dimensions) if (d !== 0) dimensional = true
+  for (let i = 0; i < u.dimensions.length; i++) if (u.dimensions[i] !== 0) dimensional = true
   if (!dimensional) return undefined
   // Units defined by other than plain numbers (VAR is complex) go the mathjs way.
-  for (const part of u.units) if (typeof part.unit.value !== 'number' || typeof part.prefix.value !== 'number' || typeof part.power !== 'number') return undefined
+  for (let i = 0; i < u.units.length; i++) {
+    const part = u.units[i]
+    if (typeof part.unit.value !== 'number' || typeof part.prefix.value !== 'number' || typeof part.power !== 'number') return undefined
+  }
   // Unit.clone's copy, with the fields in the constructor's order. Its unit list and dimensions are
   // the same for every number times this unit: made once per unit name, frozen, and shared. mathjs
   // copies a unit before it changes one, except Unit.toBest (which changes the first part's prefix
@@ -1172,7 +1186,10 @@ function numberIn(v: Unit, ref: Unit): number {
   if (!(derived || u.units.length === 0 || r.units.length === 0 || u.units[0].unit.offset === r.units[0].unit.offset)) {
     x = x + (u.units[0].unit.value * u.units[0].unit.offset - r.units[0].unit.value * r.units[0].unit.offset)
   }
-  for (const part of r.units) x = x / Math.pow(part.unit.value * part.prefix.value, part.power)
+  for (let i = 0; i < r.units.length; i++) {
+    const part = r.units[i]
+    x = x / Math.pow(part.unit.value * part.prefix.value, part.power)
+  }
   return x
 }
 
