@@ -1,5 +1,6 @@
 // The line parser: every statement's parts with exact spans, and broken input becoming error
 // nodes without stopping the parse.
+import { spanOf } from '../server/src/core/positions'
 import fc from 'fast-check'
 import { describe, expect, it } from 'vitest'
 import { commentStart, IDENT_AT, identEnd, LETTERS_AT, lettersEnd, parse, trailingIn, WORD_AT, wordAt, wordEnd } from '../server/src/core/parser'
@@ -25,7 +26,7 @@ describe('statements', () => {
     const note = t.lines[1] as Extract<LineNode, { kind: 'note' }>
     expect(note.text.text).toBe('Feed is technical grade.')
     const cond = t.lines[2] as Extract<LineNode, { kind: 'conditions' }>
-    expect(cond.items.map((i) => covered(src, i.span))).toEqual(['22 degC', '101.325 kPa'])
+    expect(cond.items.map((i) => covered(src, spanOf(i)))).toEqual(['22 degC', '101.325 kPa'])
   })
 
   it('keeps a # inside a quoted title', () => {
@@ -36,8 +37,8 @@ describe('statements', () => {
   it('reads a named value with its expression span', () => {
     const m = marked('let ⟦area⟧ = ⟦36 cm^2⟧')
     const n = only(m.text, 'let')
-    expect(n.name.span).toEqual(m.ranges[0])
-    expect(n.expr.span).toEqual(m.ranges[1])
+    expect(spanOf(n.name)).toEqual(m.ranges[0])
+    expect(spanOf(n.expr)).toEqual(m.ranges[1])
   })
 
   it('reads the cell block with indented parts', () => {
@@ -75,7 +76,7 @@ describe('statements', () => {
     expect(n.compartment.text).toBe('feed')
     expect(n.items).toHaveLength(3)
     const [a, b, c] = n.items
-    expect([a.formula.span, a.quantity.span, b.formula.span, b.quantity.span, c.formula.span, c.quantity.span, c.concentration?.span]).toEqual(m.ranges)
+    expect([spanOf(a.formula), spanOf(a.quantity), spanOf(b.formula), spanOf(b.quantity), spanOf(c.formula), spanOf(c.quantity), c.concentration && spanOf(c.concentration)]).toEqual(m.ranges)
   })
 
   it('splits charge items only at top-level commas', () => {
@@ -87,7 +88,7 @@ describe('statements', () => {
     const m = marked('step 1: ⟦current⟧ ⟦40 mA/cm^2 * area⟧ ⟦for⟧ ⟦5 h⟧, ⟦efficiency⟧ ⟦85 %⟧')
     const n = only(m.text, 'step')
     expect(n.label.text).toBe('1')
-    expect(n.clauses.flatMap((c) => [c.keyword.span, c.expr.span])).toEqual(m.ranges)
+    expect(n.clauses.flatMap((c) => [spanOf(c.keyword), spanOf(c.expr)])).toEqual(m.ranges)
     const n2 = only('step warm: voltage 3.2 V, current 1.5 A, for 2 h', 'step')
     expect(n2.clauses.map((c) => c.keyword.text)).toEqual(['voltage', 'current', 'for'])
   })
@@ -103,7 +104,7 @@ describe('statements', () => {
   it('reads expect and observe lines with and without a compartment', () => {
     const m = marked('expect ⟦KOH⟧ ⟦25 g⟧ in ⟦product⟧')
     const n = only(m.text, 'expect')
-    expect([n.formula.span, n.quantity.span, n.compartment?.span]).toEqual(m.ranges)
+    expect([spanOf(n.formula), spanOf(n.quantity), n.compartment && spanOf(n.compartment)]).toEqual(m.ranges)
     const o = only('observe H2 3.1 L', 'observe')
     expect(o.quantity.text).toBe('3.1 L')
     expect(o.compartment).toBeUndefined()

@@ -1,6 +1,7 @@
 // The structural invariants of one analysis, shared by the vitest suite (test/fuzz.test.ts) and the
 // standalone fuzz runner (test/fuzz/run.ts). Plain Errors only, no test framework: `checkAll`
 // throws an Error naming the first broken invariant, and lets any exception from the core through.
+import { spanOf } from '../../server/src/core/positions'
 import { analyze, hoverAt, outline, type Analysis, type OutlineItem } from '../../server/src/core/analyze'
 
 export interface SpanLike {
@@ -71,10 +72,10 @@ export function checkAll(text: string): Analysis {
     expectSpan(c.span, 0, n, `computed ${c.key} span`)
     expectOffset(c.anchor, n, `computed ${c.key} anchor`)
   }
-  for (const q of a.model.quantities) expectSpan(q.expr.span, 0, n, `quantity ${q.role}`)
-  for (const f of a.model.formulas) expectSpan(f.tok.span, 0, n, `formula ${f.tok.text}`)
-  for (const r of a.model.refs) expectSpan(r.tok.span, 0, n, `reference ${r.tok.text}`)
-  for (const d of a.model.declarations) expectSpan(d.tok.span, 0, n, `declaration ${d.tok.text}`)
+  for (const q of a.model.quantities) expectSpan(spanOf(q.expr), 0, n, `quantity ${q.role}`)
+  for (const f of a.model.formulas) expectSpan(spanOf(f.tok), 0, n, `formula ${f.tok.text}`)
+  for (const r of a.model.refs) expectSpan(spanOf(r.tok), 0, n, `reference ${r.tok.text}`)
+  for (const d of a.model.declarations) expectSpan(spanOf(d.tok), 0, n, `declaration ${d.tok.text}`)
 
   // The editor-facing views must hold up too.
   const walk = (items: OutlineItem[]): void => {

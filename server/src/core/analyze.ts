@@ -8,7 +8,7 @@ import { clearFormulaCache, prettyFormula } from './formula'
 import { buildModel, engineRuns, simulationRuns, type Computed, type Model, type ModelOptions } from './model'
 import { parse, reparse } from './parser'
 import { clearSimulationCaches } from './simulate'
-import { LineIndex, type Span } from './positions'
+import { spanOf, LineIndex, type Span } from './positions'
 import type { LineNode, SyntaxTree } from './syntax'
 import { clearExpressionCache, fmt, withGasUnit, withSignificantFigures } from './units'
 
@@ -131,7 +131,7 @@ export interface Hover {
 /** What to show when the pointer rests at `offset`: the working behind a computed value, or a formula's mass. */
 export function hoverAt(a: Analysis, offset: number): Hover | undefined {
   const line = a.index.lineOf(offset)
-  const f = a.model.formulas.find((x) => x.line === line && offset >= x.tok.span.start && offset <= x.tok.span.end)
+  const f = a.model.formulas.find((x) => x.line === line && offset >= x.tok.start && offset <= x.tok.end)
   const here = a.computed.filter((c) => c.line === line && offset >= c.span.start && offset <= c.span.end)
   const parts: string[] = []
   if (f && f.formula.ok) {
@@ -146,7 +146,7 @@ export function hoverAt(a: Analysis, offset: number): Hover | undefined {
     parts.push(`**${c.title}**\n\n${c.working.map((w) => `    ${w}`).join('\n')}`)
   }
   if (parts.length === 0) return undefined
-  const span = f ? f.tok.span : here[0].span
+  const span = f ? spanOf(f.tok) : here[0].span
   return { span, markdown: parts.join('\n\n---\n\n') }
 }
 
@@ -181,7 +181,7 @@ export function outline(a: Analysis): OutlineItem[] {
         items.push(item(n, 'conditions', 'conditions', n.items.map((i) => i.text).join(', ')))
         break
       case 'let':
-        items.push(item(n, 'value', n.name.text, n.expr.text, n.name.span))
+        items.push(item(n, 'value', n.name.text, n.expr.text, spanOf(n.name)))
         break
       case 'cell':
         cell = item(n, 'cell', 'cell', '')
@@ -193,12 +193,12 @@ export function outline(a: Analysis): OutlineItem[] {
       case 'vessel': {
         const child =
           n.kind === 'compartment'
-            ? item(n, 'compartment', n.name.text, n.volume.text, n.name.span)
+            ? item(n, 'compartment', n.name.text, n.volume.text, spanOf(n.name))
             : n.kind === 'separator'
-              ? item(n, 'separator', n.type.text, `${n.between[0].text} | ${n.between[1].text}`, n.type.span)
+              ? item(n, 'separator', n.type.text, `${n.between[0].text} | ${n.between[1].text}`, spanOf(n.type))
               : n.kind === 'electrode'
-                ? item(n, 'electrode', n.role, `${n.material.text} in ${n.compartment.text}`, n.keyword?.span ?? n.span)
-                : item(n, 'vessel', 'vessel', n.material.text, n.material.span)
+                ? item(n, 'electrode', n.role, `${n.material.text} in ${n.compartment.text}`, (n.keyword ? spanOf(n.keyword) : n.span))
+                : item(n, 'vessel', 'vessel', n.material.text, spanOf(n.material))
         if (cell && n.inCell) {
           cell.children.push(child)
           cell.span = { start: cell.span.start, end: n.span.end }
@@ -206,20 +206,20 @@ export function outline(a: Analysis): OutlineItem[] {
         break
       }
       case 'charge':
-        items.push(item(n, 'charge', `charge ${n.compartment.text}`, n.items.map((i) => i.formula.text).join(', '), n.compartment.span))
+        items.push(item(n, 'charge', `charge ${n.compartment.text}`, n.items.map((i) => i.formula.text).join(', '), spanOf(n.compartment)))
         break
       case 'step':
-        items.push(item(n, 'step', `step ${n.label.text}`, n.clauses.map((c) => `${c.keyword.text} ${c.expr.text}`).join(', '), n.label.span))
+        items.push(item(n, 'step', `step ${n.label.text}`, n.clauses.map((c) => `${c.keyword.text} ${c.expr.text}`).join(', '), spanOf(n.label)))
         break
       case 'expect':
       case 'observe':
-        items.push(item(n, n.kind, `${n.kind} ${n.formula.text}`, n.quantity.text, n.formula.span))
+        items.push(item(n, n.kind, `${n.kind} ${n.formula.text}`, n.quantity.text, spanOf(n.formula)))
         break
       case 'handling':
-        items.push(item(n, 'handling', `handling ${n.type.text}`, n.text.text, n.type.span))
+        items.push(item(n, 'handling', `handling ${n.type.text}`, n.text.text, spanOf(n.type)))
         break
       case 'reaction':
-        items.push(item(n, 'reaction', `reaction ${n.role.text}`, n.equation.text, n.role.span))
+        items.push(item(n, 'reaction', `reaction ${n.role.text}`, n.equation.text, spanOf(n.role)))
         break
     }
   }

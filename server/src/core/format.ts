@@ -14,7 +14,7 @@ import { analyze, type Analysis } from './analyze'
 import type { Edit } from './diagnostics'
 import type { ModelOptions } from './model'
 import { commentStart } from './parser'
-import type { LineIndex, Span } from './positions'
+import { type LineIndex, type Span, spanOf } from './positions'
 import type { LineNode } from './syntax'
 
 export interface FormatResult {
@@ -194,13 +194,13 @@ function formatLine(raw: string, node: LineNode | undefined, base: number, text:
 function protectedSpans(node: LineNode, text: string): Span[] {
   switch (node.kind) {
     case 'run': {
-      const t = node.title.span
+      const t = spanOf(node.title)
       return [text[t.start - 1] === '"' && text[t.end] === '"' ? { start: t.start - 1, end: t.end + 1 } : t]
     }
     case 'note':
-      return [node.text.span]
+      return [spanOf(node.text)]
     case 'handling':
-      return [node.text.span]
+      return [spanOf(node.text)]
     default:
       return []
   }
@@ -209,7 +209,7 @@ function protectedSpans(node: LineNode, text: string): Span[] {
 /** The `:` that ends the header of a charge, step, handling or reaction line (absolute offset). */
 function headerColon(node: LineNode, text: string): number | undefined {
   const after =
-    node.kind === 'charge' ? node.compartment.span.end : node.kind === 'step' ? node.label.span.end : node.kind === 'handling' ? node.type.span.end : node.kind === 'reaction' ? node.role.span.end : undefined
+    node.kind === 'charge' ? node.compartment.end : node.kind === 'step' ? node.label.end : node.kind === 'handling' ? node.type.end : node.kind === 'reaction' ? node.role.end : undefined
   if (after === undefined) return undefined
   const at = text.indexOf(':', after)
   return at >= 0 ? at : undefined
@@ -220,7 +220,7 @@ const isBlank = (c: string | undefined) => c === ' ' || c === '\t'
 function normaliseCode(code: string, codeStart: number, node: LineNode, text: string): string {
   const keep = protectedSpans(node, text)
   const colon = headerColon(node, text)
-  const eq = node.kind === 'let' ? text.indexOf('=', node.name.span.end) : undefined
+  const eq = node.kind === 'let' ? text.indexOf('=', node.name.end) : undefined
   let out = ''
   /** The output ends with a space that collapsing made (and that a comma or colon may take back). */
   let softSpace = false

@@ -10,7 +10,7 @@ export function hoverWithData(a: Analysis, offset: number): Hover | undefined {
   const h = hoverAt(a, offset)
   if (!h) return undefined
   const line = a.index.lineOf(offset)
-  const f = a.model.formulas.find((x) => x.line === line && offset >= x.tok.span.start && offset <= x.tok.span.end)
+  const f = a.model.formulas.find((x) => x.line === line && offset >= x.tok.start && offset <= x.tok.end)
   if (!f || !f.formula.ok || f.isWater) return h
   const notes = dataNotes(f.tok.text, a.model.temperatureK)
   if (notes.length === 0) return h

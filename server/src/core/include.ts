@@ -3,7 +3,7 @@
 // including file and may not leave the workspace root; cycles are reported, not followed. Pure: the
 // caller supplies the reader (the CLI reads the disk; the language server its open documents first).
 import { parse } from './parser'
-import type { Span } from './positions'
+import { type Span, spanOf } from './positions'
 import { CELL_KEYWORDS, type LineNode } from './syntax'
 
 export interface IncludeOptions {
@@ -53,7 +53,7 @@ export function gatherIncludes(lines: readonly LineNode[], opts: IncludeOptions)
   const visit = (nodes: readonly LineNode[], from: string, stack: string[], at: Span | undefined): void => {
     for (const n of nodes) {
       if (n.kind !== 'include') continue
-      const span = at ?? n.path.span
+      const span = at ?? spanOf(n.path)
       const where = at ? ` (included from ${from})` : ''
       const target = normalisePath(n.path.text.startsWith('/') ? n.path.text : `${dirname(from)}/${n.path.text}`)
       if (target !== root && !target.startsWith(root === '/' ? '/' : root + '/')) {

@@ -17,7 +17,7 @@ import { SOLUBILITY, solubilityAt } from './data/solubility'
 import type { Severity } from './diagnostics'
 import type { IncludeOptions, IncludeProblem } from './include'
 import { parseFormula, prettyFormula, type Formula } from './formula'
-import type { Span } from './positions'
+import { type Span, spanOf } from './positions'
 import type { ChargeItem, LineNode, SyntaxTree, Tok } from './syntax'
 import {
   evaluateExpression,
@@ -815,7 +815,7 @@ class Evaluator {
   formula(line: number, tok: Tok): FormulaFact {
     // A state symbol (`NaCl(aq)`, `H2(g)`) says nothing the analysis needs: read the formula without it.
     const state = /\((aq|s|l|g)\)$/.exec(tok.text)
-    const bare: Tok = state ? { text: tok.text.slice(0, state.index), span: { start: tok.span.start, end: tok.span.start + state.index } } : tok
+    const bare: Tok = state ? { text: tok.text.slice(0, state.index), start: tok.start, end: tok.start + state.index } : tok
     const isWater = WATER_NAMES.has(bare.text)
     const f: FormulaFact = { line, tok: bare, formula: parseFormula(isWater ? 'H2O' : bare.text), isWater }
     this.m.formulas.push(f)
@@ -1163,7 +1163,7 @@ class Evaluator {
             if (area) {
               s.usedArea = area
               s.currentA = q.number * area.cm2 * 1e-4
-            } else s.densityWithoutArea = { span: c.expr.span, on }
+            } else s.densityWithoutArea = { span: spanOf(c.expr), on }
           }
           break
         }
@@ -1267,7 +1267,7 @@ class Evaluator {
       second = (q.number * 1000 * rhoW) / M
       suggestion = `${fmt((firstMol * M) / rhoW, 4)} mL`
     } else return
-    this.m.twoWays.push({ line: n.line, span: alt.span, what, first: firstMol, second, suggestion })
+    this.m.twoWays.push({ line: n.line, span: spanOf(alt), what, first: firstMol, second, suggestion })
   }
 
   /** Simulate the run step by step; show each step's state, its events and the end state. */

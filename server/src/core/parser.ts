@@ -1,6 +1,6 @@
 // The line parser. It never throws: each line becomes exactly one node; a line it cannot read
 // becomes an `error` node with a message, and parsing goes on with the next line.
-import { LineIndex, type Span } from './positions'
+import { spanOf, LineIndex, type Span } from './positions'
 import {
   CELL_KEYWORDS,
   STATEMENT_KEYWORDS,
@@ -116,10 +116,12 @@ function moved<T>(v: T, shift: number, lineShift: number): T {
   if (typeof o.start === 'number' && typeof o.end === 'number' && Object.keys(o).length === 2) {
     return { start: o.start + shift, end: o.end + shift } as T
   }
+  // Any other object: a node, a clause, or a token (whose `start` and `end` are offsets too).
   const out: Record<string, unknown> = {}
   for (const k in o) {
     const x = o[k]
-    out[k] = k === 'line' && typeof x === 'number' ? x + lineShift : typeof x === 'object' ? moved(x, shift, lineShift) : x
+    out[k] =
+      typeof x === 'number' && k === 'line' ? x + lineShift : typeof x === 'number' && (k === 'start' || k === 'end') ? x + shift : typeof x === 'object' ? moved(x, shift, lineShift) : x
   }
   return out as T
 }
@@ -250,7 +252,7 @@ function parseLine(raw: string, base: number, line: number, inCell: boolean): Li
   const kwEnd = keywordEnd(content, indent)
   const kwMatch = kwEnd > indent
   const kwText = kwMatch ? knownKeyword(content, indent, kwEnd) ?? content.slice(indent, kwEnd) : ''
-  const keyword: Tok = { text: kwText, span: { start: base + indent, end: base + indent + kwText.length } }
+  const keyword: Tok = { text: kwText, start: base + indent, end: base + indent + kwText.length }
   // One cursor serves every line (parsing is not re-entrant): no object per line.
   const s = CURSOR.reset(content, base, indent + kwText.length)
   try {
@@ -383,11 +385,11 @@ function parseLine(raw: string, base: number, line: number, inCell: boolean): Li
         const restTok = s.restTok('an amount, e.g. `25 g`')
         const inAt = trailingIn(restTok.text)
         const qEnd = inAt ? inAt.from : restTok.text.length
-        const { main, alternate } = splitAlternate(qEnd === restTok.text.length ? restTok : { text: restTok.text.slice(0, qEnd), span: { start: restTok.span.start, end: restTok.span.start + qEnd } })
+        const { main, alternate } = splitAlternate(qEnd === restTok.text.length ? restTok : { text: restTok.text.slice(0, qEnd), start: restTok.start, end: restTok.start + qEnd })
         let compartment: Tok | undefined
         if (inAt) {
-          const nameStart = restTok.span.start + inAt.nameStart
-          compartment = { text: restTok.text.slice(inAt.nameStart, inAt.nameEnd), span: { start: nameStart, end: restTok.span.start + inAt.nameEnd } }
+          const nameStart = restTok.start + inAt.nameStart
+          compartment = { text: restTok.text.slice(inAt.nameStart, inAt.nameEnd), start: nameStart, end: restTok.start + inAt.nameEnd }
         }
         return { kind: kwText === 'expect' ? 'expect' : 'observe', line, indent, span, comment, keyword, formula, quantity: main, alternate, compartment }
       }
@@ -398,9 +400,9 @@ function parseLine(raw: string, base: number, line: number, inCell: boolean): Li
           const guess = closest(role.text, ['anode', 'cathode'])
           throw new LineError(
             `expected \`anode\` or \`cathode\`, found \`${role.text}\``,
-            role.span.start - base,
-            role.span.end - base,
-            guess ? { start: role.span.start - base, end: role.span.end - base, newText: guess, title: `Change to \`${guess}\`` } : undefined,
+            role.start - base,
+            role.end - base,
+            guess ? { start: role.start - base, end: role.end - base, newText: guess, title: `Change to \`${guess}\`` } : undefined,
           )
         }
         s.ws()
@@ -485,33 +487,33 @@ function parseChargeItem(s: Cursor, t: Tok): ChargeItem {
   if (!m) {
     throw new LineError(
       `expected a substance and its amount, e.g. \`NaCl 300 g\`; found \`${t.text}\``,
-      t.span.start - s.base,
-      t.span.end - s.base,
+      t.start - s.base,
+      t.end - s.base,
     )
   }
-  const formula: Tok = { text: m[1], span: { start: t.span.start, end: t.span.start + m[1].length } }
-  const restStart = t.span.start + m[1].length + m[2].length
+  const formula: Tok = { text: m[1], start: t.start, end: t.start + m[1].length }
+  const restStart = t.start + m[1].length + m[2].length
   const rest = m[3]
   const sol = /^solution(\s+)(.*?)\s+at\s+(.+)$/s.exec(rest)
   if (sol) {
     const qStart = restStart + 'solution'.length + sol[1].length
     const cStart = restStart + rest.length - sol[3].length
     return {
-      span: t.span,
+      span: spanOf(t),
       formula,
-      quantity: { text: sol[2], span: { start: qStart, end: qStart + sol[2].length } },
-      concentration: { text: sol[3], span: { start: cStart, end: cStart + sol[3].length } },
+      quantity: { text: sol[2], start: qStart, end: qStart + sol[2].length },
+      concentration: { text: sol[3], start: cStart, end: cStart + sol[3].length },
     }
   }
   if (/^solution\b/.test(rest)) {
     throw new LineError(
       'a solution needs its amount and concentration: `FORMULA solution 1 L at 0.5 mol/L`',
       restStart - s.base,
-      t.span.end - s.base,
+      t.end - s.base,
     )
   }
-  const { main, alternate } = splitAlternate({ text: rest, span: { start: restStart, end: restStart + rest.length } })
-  return { span: t.span, formula, quantity: main, ...(alternate ? { alternate } : {}) }
+  const { main, alternate } = splitAlternate({ text: rest, start: restStart, end: restStart + rest.length })
+  return { span: spanOf(t), formula, quantity: main, ...(alternate ? { alternate } : {}) }
 }
 
 /**
@@ -540,10 +542,10 @@ export function splitAlternate(t: Tok): { main: Tok; alternate?: Tok } {
   const innerLead = inner.length - inner.trimStart().length
   const innerText = inner.trim()
   if (innerText === '') return { main: t }
-  const altStart = t.span.start + open + 1 + innerLead
+  const altStart = t.start + open + 1 + innerLead
   return {
-    main: { text: before, span: { start: t.span.start, end: t.span.start + before.length } },
-    alternate: { text: innerText, span: { start: altStart, end: altStart + innerText.length } },
+    main: { text: before, start: t.start, end: t.start + before.length },
+    alternate: { text: innerText, start: altStart, end: altStart + innerText.length },
   }
 }
 
@@ -642,7 +644,7 @@ function clauseAt(s: Cursor, line: string, a: number, b: number): Clause {
     )
   }
   const base = s.base
-  const kwTok: Tok = { text: known, span: { start: base + a, end: base + a + known.length } }
+  const kwTok: Tok = { text: known, start: base + a, end: base + a + known.length }
   let valueAt = kwEnd
   while (valueAt < b && isSpace(line, valueAt)) valueAt++
   if (valueAt === b) throw new LineError(`\`${known}\` needs a value`, a, a + known.length)
@@ -650,10 +652,10 @@ function clauseAt(s: Cursor, line: string, a: number, b: number): Clause {
   const exprStart = base + valueAt
   const on = known === 'current' ? /\s+on\s+(anode|cathode|separator)$/.exec(value) : null
   const exprText = on ? value.slice(0, on.index) : value
-  const clause: Clause = { span: { start: base + a, end: base + b }, keyword: kwTok, expr: { text: exprText, span: { start: exprStart, end: exprStart + exprText.length } } }
+  const clause: Clause = { span: { start: base + a, end: base + b }, keyword: kwTok, expr: { text: exprText, start: exprStart, end: exprStart + exprText.length } }
   if (on) {
     const onStart = exprStart + value.length - on[1].length
-    clause.on = { text: on[1], span: { start: onStart, end: onStart + on[1].length } }
+    clause.on = { text: on[1], start: onStart, end: onStart + on[1].length }
   }
   return clause
 }
@@ -681,8 +683,8 @@ function trimTok(t: Tok, from: number, to: number): Tok {
   while (a < to && isWhiteSpace(s.charCodeAt(a))) a++
   let b = to
   while (b > a && isWhiteSpace(s.charCodeAt(b - 1))) b--
-  const start = t.span.start + a
-  return { text: s.slice(a, b), span: { start, end: start + (b - a) } }
+  const start = t.start + a
+  return { text: s.slice(a, b), start, end: start + (b - a) }
 }
 
 /** A reading position in one line's content. Offsets in errors are relative to the line start. */
@@ -701,7 +703,7 @@ class Cursor {
   }
 
   tok(from: number, to: number): Tok {
-    return { text: this.s.slice(from, to), span: { start: this.base + from, end: this.base + to } }
+    return { text: this.s.slice(from, to), start: this.base + from, end: this.base + to }
   }
 
   ws(): void {
@@ -814,7 +816,7 @@ class Cursor {
     for (const part of this.splitTop(',', this.rest())) {
       const m = /^([A-Za-z-]+)(\s+)(.+)$/s.exec(part.text)
       const word = m ? m[1] : part.text.split(/\s/)[0]
-      const at = part.span.start - this.base
+      const at = part.start - this.base
       if (!m || !keys.includes(m[1])) {
         const guess = closest(word, keys)
         throw new LineError(
@@ -825,8 +827,8 @@ class Cursor {
         )
       }
       if (out[m[1]]) throw new LineError(`\`${m[1]}\` is given twice`, at, at + m[1].length)
-      const start = part.span.start + m[1].length + m[2].length
-      out[m[1]] = { text: m[3], span: { start, end: start + m[3].length } }
+      const start = part.start + m[1].length + m[2].length
+      out[m[1]] = { text: m[3], start, end: start + m[3].length }
     }
     return out
   }
@@ -843,7 +845,7 @@ class Cursor {
   }
 
   needExpr(t: Tok, what: string): Tok {
-    if (t.text === '') throw new LineError(`expected ${what}`, t.span.start - this.base)
+    if (t.text === '') throw new LineError(`expected ${what}`, t.start - this.base)
     return t
   }
 
@@ -864,7 +866,7 @@ class Cursor {
     }
     out.push(trimTok(t, from, t.text.length))
     for (const p of out) {
-      if (p.text === '') throw new LineError(`an empty item between \`${sep}\``, p.span.start - this.base, p.span.start - this.base + 1)
+      if (p.text === '') throw new LineError(`an empty item between \`${sep}\``, p.start - this.base, p.start - this.base + 1)
     }
     return out
   }

@@ -114,3 +114,8 @@ export function spanAt(base: number, start: number, end: number): Span {
 export function spanContains(span: Span, offset: number): boolean {
   return offset >= span.start && offset <= span.end
 }
+
+/** Where a token stands, as a span of its own (a token is read in place; a span handed out is a copy). */
+export function spanOf(t: Span): Span {
+  return { start: t.start, end: t.end }
+}

@@ -3,7 +3,7 @@
 // expect and observe lines). Go to definition, find references and rename, as plain data.
 import type { Analysis } from './analyze'
 import type { Edit } from './diagnostics'
-import type { Span } from './positions'
+import { type Span, spanOf } from './positions'
 import { compartmentMentions, letNames, valueUses } from './scan'
 import { STATEMENT_KEYWORDS, STEP_CLAUSES } from './syntax'
 import { isUnitSymbol } from './units'
@@ -49,9 +49,9 @@ export function nameAt(a: Analysis, offset: number): NameAt | undefined {
   const n = a.tree.lines[line]
   if (!n) return undefined
   const inside = (s: Span) => offset >= s.start && offset <= s.end
-  if (n.kind === 'let' && inside(n.name.span)) return { kind: 'value', name: n.name.text, span: n.name.span }
-  if (n.kind === 'compartment' && inside(n.name.span)) return { kind: 'compartment', name: n.name.text, span: n.name.span }
-  for (const t of compartmentMentions(n)) if (inside(t.span)) return { kind: 'compartment', name: t.text, span: t.span }
+  if (n.kind === 'let' && inside(spanOf(n.name))) return { kind: 'value', name: n.name.text, span: spanOf(n.name) }
+  if (n.kind === 'compartment' && inside(spanOf(n.name))) return { kind: 'compartment', name: n.name.text, span: spanOf(n.name) }
+  for (const t of compartmentMentions(n)) if (inside(spanOf(t))) return { kind: 'compartment', name: t.text, span: spanOf(t) }
   const uses = valueUses([n], letNames(a.tree.lines))
   const use = uses.find((u) => inside(u.span))
   return use ? { kind: 'value', name: use.name, span: use.span } : undefined
@@ -61,12 +61,12 @@ export function nameAt(a: Analysis, offset: number): NameAt | undefined {
 export function occurrences(a: Analysis, kind: NameKind, name: string): Occurrence[] {
   const out: Occurrence[] = []
   if (kind === 'value') {
-    for (const n of a.tree.lines) if (n.kind === 'let' && n.name.text === name) out.push({ span: n.name.span, declaration: true })
+    for (const n of a.tree.lines) if (n.kind === 'let' && n.name.text === name) out.push({ span: spanOf(n.name), declaration: true })
     for (const u of valueUses(a.tree.lines, new Set([name]))) out.push({ span: u.span, declaration: false })
   } else {
     for (const n of a.tree.lines) {
-      if (n.kind === 'compartment' && n.name.text === name) out.push({ span: n.name.span, declaration: true })
-      for (const t of compartmentMentions(n)) if (t.text === name) out.push({ span: t.span, declaration: false })
+      if (n.kind === 'compartment' && n.name.text === name) out.push({ span: spanOf(n.name), declaration: true })
+      for (const t of compartmentMentions(n)) if (t.text === name) out.push({ span: spanOf(t), declaration: false })
     }
   }
   return out.sort((x, y) => x.span.start - y.span.start)

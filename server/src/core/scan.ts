@@ -42,7 +42,7 @@ export function expressionsOf(n: LineNode): Expr[] {
       if (n.alternate) out.push(n.alternate)
       break
   }
-  return out.sort((a, b) => a.span.start - b.span.start)
+  return out.sort((a, b) => a.start - b.start)
 }
 
 export type ExprTokenKind = 'number' | 'name' | 'function' | 'operator' | 'punctuation' | 'other'
@@ -82,14 +82,14 @@ export function scanExpression(e: Expr): ExprToken[] {
     }
     const num = at(NUMBER)
     if (num) {
-      out.push({ kind: 'number', text: num, span: { start: e.span.start + i, end: e.span.start + i + num.length } })
+      out.push({ kind: 'number', text: num, span: { start: e.start + i, end: e.start + i + num.length } })
       i += num.length
       continue
     }
     const name = at(NAME)
     if (name) {
       const after = /^\s*\(/.test(t.slice(i + name.length))
-      out.push({ kind: FUNCTIONS.has(name) && after ? 'function' : 'name', text: name, span: { start: e.span.start + i, end: e.span.start + i + name.length } })
+      out.push({ kind: FUNCTIONS.has(name) && after ? 'function' : 'name', text: name, span: { start: e.start + i, end: e.start + i + name.length } })
       i += name.length
       continue
     }
@@ -97,7 +97,7 @@ export function scanExpression(e: Expr): ExprToken[] {
     const kind: ExprTokenKind = '+-*/^−·×⋅²³'.includes(c) ? 'operator' : '()[]'.includes(c) ? 'punctuation' : 'other'
     // Keep a surrogate pair together.
     const width = c.charCodeAt(0) >= 0xd800 && c.charCodeAt(0) <= 0xdbff && i + 1 < t.length ? 2 : 1
-    out.push({ kind, text: t.slice(i, i + width), span: { start: e.span.start + i, end: e.span.start + i + width } })
+    out.push({ kind, text: t.slice(i, i + width), span: { start: e.start + i, end: e.start + i + width } })
     i += width
   }
   return out
@@ -172,29 +172,29 @@ export function connectives(text: string, n: LineNode): Span[] {
   const out: (Span | undefined)[] = []
   switch (n.kind) {
     case 'separator':
-      out.push(wordBetween(text, n.type.span.end, n.between[0].span.start, 'between', true))
-      out.push(wordBetween(text, n.between[0].span.end, n.between[1].span.start, 'and'))
-      if (n.area) out.push(wordBetween(text, n.between[1].span.end, n.area.span.start, 'area', true))
-      if (n.drag) out.push(wordBetween(text, n.between[1].span.end, n.drag.span.start, 'drag', true))
+      out.push(wordBetween(text, n.type.end, n.between[0].start, 'between', true))
+      out.push(wordBetween(text, n.between[0].end, n.between[1].start, 'and'))
+      if (n.area) out.push(wordBetween(text, n.between[1].end, n.area.start, 'area', true))
+      if (n.drag) out.push(wordBetween(text, n.between[1].end, n.drag.start, 'drag', true))
       break
     case 'electrode':
-      out.push(wordBetween(text, n.material.span.end, n.compartment.span.start, 'in', true))
-      if (n.area) out.push(wordBetween(text, n.compartment.span.end, n.area.span.start, 'area', true))
+      out.push(wordBetween(text, n.material.end, n.compartment.start, 'in', true))
+      if (n.area) out.push(wordBetween(text, n.compartment.end, n.area.start, 'area', true))
       break
     case 'charge':
       for (const item of n.items) {
         if (item.concentration) {
-          out.push(wordBetween(text, item.formula.span.end, item.quantity.span.start, 'solution'))
-          out.push(wordBetween(text, item.quantity.span.end, item.concentration.span.start, 'at', true))
+          out.push(wordBetween(text, item.formula.end, item.quantity.start, 'solution'))
+          out.push(wordBetween(text, item.quantity.end, item.concentration.start, 'at', true))
         }
       }
       break
     case 'step':
-      for (const c of n.clauses) if (c.on) out.push(wordBetween(text, c.expr.span.end, c.on.span.start, 'on', true))
+      for (const c of n.clauses) if (c.on) out.push(wordBetween(text, c.expr.end, c.on.start, 'on', true))
       break
     case 'expect':
     case 'observe':
-      if (n.compartment) out.push(wordBetween(text, (n.alternate ?? n.quantity).span.end, n.compartment.span.start, 'in', true))
+      if (n.compartment) out.push(wordBetween(text, (n.alternate ?? n.quantity).end, n.compartment.start, 'in', true))
       break
   }
   return out.filter((s): s is Span => s !== undefined)

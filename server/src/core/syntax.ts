@@ -4,7 +4,8 @@ import type { Span } from './positions'
 /** A word or piece of text with where it stands. */
 export interface Tok {
   text: string
-  span: Span
+  start: number
+  end: number
 }
 
 /** An expression as written (mathjs syntax with units); evaluated later by the model. */

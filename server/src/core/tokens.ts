@@ -13,7 +13,7 @@
 //
 // Every token lies within one line and tokens do not overlap; they come sorted by position.
 import type { Analysis } from './analyze'
-import type { Span } from './positions'
+import { type Span, spanOf } from './positions'
 import { connectives, expressionsOf, isUnitName, letNames, scanExpression } from './scan'
 import type { LineNode } from './syntax'
 
@@ -36,7 +36,7 @@ export function semanticTokens(a: Analysis): SemanticToken[] {
     if (span && span.end > span.start) out.push({ span, type, modifiers })
   }
   for (const n of a.tree.lines) {
-    if (n.keyword && n.kind !== 'error') add(n.keyword.span, 'keyword')
+    if (n.keyword && n.kind !== 'error') add(spanOf(n.keyword), 'keyword')
     lineTokens(a, n, add)
     for (const s of connectives(a.text, n)) add(s, 'keyword')
     for (const e of expressionsOf(n)) {
@@ -77,57 +77,57 @@ type Add = (span: Span | undefined, type: TokenType, ...modifiers: TokenModifier
 function lineTokens(a: Analysis, n: LineNode, add: Add): void {
   switch (n.kind) {
     case 'run': {
-      const quoted = a.text[n.title.span.start - 1] === '"' && a.text[n.title.span.end] === '"'
-      add(quoted ? { start: n.title.span.start - 1, end: n.title.span.end + 1 } : n.title.span, 'string')
+      const quoted = a.text[n.title.start - 1] === '"' && a.text[n.title.end] === '"'
+      add(quoted ? { start: n.title.start - 1, end: n.title.end + 1 } : spanOf(n.title), 'string')
       break
     }
     case 'note':
-      add(n.text.span, 'string')
+      add(spanOf(n.text), 'string')
       break
     case 'let': {
-      add(n.name.span, 'variable', 'declaration', 'readonly')
-      const eq = a.text.indexOf('=', n.name.span.end)
-      if (eq >= 0 && eq < n.expr.span.start) add({ start: eq, end: eq + 1 }, 'operator')
+      add(spanOf(n.name), 'variable', 'declaration', 'readonly')
+      const eq = a.text.indexOf('=', n.name.end)
+      if (eq >= 0 && eq < n.expr.start) add({ start: eq, end: eq + 1 }, 'operator')
       break
     }
     case 'vessel':
-      add(n.material.span, 'type')
+      add(spanOf(n.material), 'type')
       break
     case 'compartment':
-      add(n.name.span, 'variable', 'declaration')
+      add(spanOf(n.name), 'variable', 'declaration')
       break
     case 'separator':
-      add(n.type.span, 'type')
-      add(n.between[0].span, 'variable')
-      add(n.between[1].span, 'variable')
+      add(spanOf(n.type), 'type')
+      add(spanOf(n.between[0]), 'variable')
+      add(spanOf(n.between[1]), 'variable')
       break
     case 'electrode':
-      add(n.material.span, 'type')
-      add(n.compartment.span, 'variable')
+      add(spanOf(n.material), 'type')
+      add(spanOf(n.compartment), 'variable')
       break
     case 'charge':
-      add(n.compartment.span, 'variable')
-      for (const item of n.items) add(item.formula.span, 'struct')
+      add(spanOf(n.compartment), 'variable')
+      for (const item of n.items) add(spanOf(item.formula), 'struct')
       break
     case 'step':
-      add(n.label.span, 'label')
+      add(spanOf(n.label), 'label')
       for (const c of n.clauses) {
-        add(c.keyword.span, 'keyword')
-        if (c.on) add(c.on.span, 'keyword')
+        add(spanOf(c.keyword), 'keyword')
+        if (c.on) add(spanOf(c.on), 'keyword')
       }
       break
     case 'expect':
     case 'observe':
-      add(n.formula.span, 'struct')
-      if (n.compartment) add(n.compartment.span, 'variable')
+      add(spanOf(n.formula), 'struct')
+      if (n.compartment) add(spanOf(n.compartment), 'variable')
       break
     case 'handling':
-      add(n.type.span, 'type')
-      add(n.text.span, 'string')
+      add(spanOf(n.type), 'type')
+      add(spanOf(n.text), 'string')
       break
     case 'reaction':
-      add(n.role.span, 'keyword')
-      equationTokens(n.equation.text, n.equation.span.start, add)
+      add(spanOf(n.role), 'keyword')
+      equationTokens(n.equation.text, n.equation.start, add)
       break
   }
 }

@@ -10,14 +10,14 @@ export const badExpression: Rule = {
     return model.quantities.flatMap((q) => {
       const f = q.failure
       if (!f || f.reason === 'unknown-name') return []
-      const start = q.expr.span.start + f.start
-      const end = q.expr.span.start + Math.max(f.end, f.start)
+      const start = q.expr.start + f.start
+      const end = q.expr.start + Math.max(f.end, f.start)
       return [
         {
           code: 'bad-expression',
           severity: 'error' as const,
           message: `${f.message} (in ${q.role})`,
-          span: end > start ? { start, end } : { start: q.expr.span.start, end: q.expr.span.end },
+          span: end > start ? { start, end } : { start: q.expr.start, end: q.expr.end },
           fixes: [],
         },
       ]

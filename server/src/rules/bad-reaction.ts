@@ -1,6 +1,7 @@
 // bad-reaction: a stated half-reaction that cannot be read, or whose electrons stand on the wrong
 // side for its electrode: an anode takes electrons from the solution (they appear among the
 // products), a cathode gives them (they appear among the reactants).
+import { spanOf } from '../core/positions'
 import type { Diagnostic } from '../core/diagnostics'
 import type { Rule } from './rule'
 
@@ -11,13 +12,13 @@ export const badReaction: Rule = {
   check({ model }) {
     const out: Diagnostic[] = []
     for (const r of model.reactions) {
-      const base = r.equation.span.start
+      const base = r.equation.start
       for (const e of r.parsed.errors) {
         out.push({
           code: 'bad-reaction',
           severity: 'error',
           message: e.message,
-          span: { start: base + e.start, end: base + Math.max(e.end, e.start + 1) > r.equation.span.end ? r.equation.span.end : base + Math.max(e.end, e.start + 1) },
+          span: { start: base + e.start, end: base + Math.max(e.end, e.start + 1) > r.equation.end ? r.equation.end : base + Math.max(e.end, e.start + 1) },
           fixes: [],
         })
       }
@@ -32,7 +33,7 @@ export const badReaction: Rule = {
             : r.role === 'anode'
               ? 'takes electrons, which makes it a reduction; an anode oxidises (electrons on the right: `2 Cl- -> Cl2 + 2 e-`)'
               : 'gives electrons, which makes it an oxidation; a cathode reduces (electrons on the left: `Cu^2+ + 2 e- -> Cu`)'
-      out.push({ code: 'bad-reaction', severity: 'error', message: `this ${r.role} reaction ${what}`, span: r.equation.span, fixes: [] })
+      out.push({ code: 'bad-reaction', severity: 'error', message: `this ${r.role} reaction ${what}`, span: spanOf(r.equation), fixes: [] })
     }
     return out
   },

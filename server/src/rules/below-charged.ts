@@ -1,6 +1,7 @@
 // below-charged: an `expect` or `observe` amount smaller than what was charged of the same substance
 // into that compartment before the run: the run would have consumed product, which v1's electrode
 // reactions never do. Usually the line means the amount formed, not the amount there after the run.
+import { spanOf } from '../core/positions'
 import { fix } from '../core/diagnostics'
 import { prettyFormula } from '../core/formula'
 import { fmt } from '../core/units'
@@ -21,8 +22,8 @@ export const belowCharged: Rule = {
           code: 'below-charged',
           severity: 'warning' as const,
           message: `${fmt(charged)} g of ${prettyFormula(y.formula.tok.text)} was charged before the run, more than the ${fmt(y.mol * M)} g stated; \`${y.kind}\` states the amount there after the run, charged amount included`,
-          span: y.quantity.expr.span,
-          fixes: [fix(`Add the charged amount (${total})`, y.quantity.expr.span, total)],
+          span: spanOf(y.quantity.expr),
+          fixes: [fix(`Add the charged amount (${total})`, spanOf(y.quantity.expr), total)],
         },
       ]
     })

@@ -1,6 +1,7 @@
 // below-reversible: a step holds the cell voltage below the reversible voltage of the chosen
 // reactions: at that voltage the cell cannot drive them (a few millivolts of Nernst correction aside).
 import { fmt } from '../core/units'
+import { spanOf } from '../core/positions'
 import type { Rule } from './rule'
 
 export const belowReversible: Rule = {
@@ -21,7 +22,7 @@ export const belowReversible: Rule = {
           code: 'below-reversible',
           severity: 'warning' as const,
           message: `${fmt(s.voltageV)} V is below the reversible voltage of this cell, ${fmt(v.reversible)} V (standard states): the chosen reactions cannot run, whatever the current stated`,
-          span: q?.expr.span ?? s.span,
+          span: q ? spanOf(q.expr) : s.span,
           fixes: [],
         },
       ]

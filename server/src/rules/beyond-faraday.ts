@@ -1,5 +1,6 @@
 // beyond-faraday: an `expect` line plans more product than the charge passed can make (Faraday's
 // law with the steps' current efficiencies), or more than the charged feed contains.
+import { spanOf } from '../core/positions'
 import { fix } from '../core/diagnostics'
 import { prettyFormula } from '../core/formula'
 import { fmt, fmtDown } from '../core/units'
@@ -33,8 +34,8 @@ export const beyondFaraday: Rule = {
           code: 'beyond-faraday',
           severity: 'error' as const,
           message: `planned ${pf} exceeds the theoretical maximum: ${why}`,
-          span: q.expr.span,
-          fixes: replacement ? [fix(`Plan the theoretical maximum (${replacement})`, q.expr.span, replacement)] : [],
+          span: spanOf(q.expr),
+          fixes: replacement ? [fix(`Plan the theoretical maximum (${replacement})`, spanOf(q.expr), replacement)] : [],
         },
       ]
     })

@@ -1,4 +1,5 @@
 // duplicate-name: a value or compartment defined twice. The first definition counts.
+import { spanOf } from '../core/positions'
 import type { Diagnostic } from '../core/diagnostics'
 import type { Rule } from './rule'
 
@@ -20,7 +21,7 @@ export const duplicateName: Rule = {
         code: 'duplicate-name',
         severity: 'error',
         message: `${d.of === 'value' ? 'the value' : 'the compartment'} \`${d.tok.text}\` is already defined on line ${first + 1}`,
-        span: d.tok.span,
+        span: spanOf(d.tok),
         fixes: [],
       })
     }

@@ -1,5 +1,6 @@
 // efficiency-over-100: an `observe` line records more product than the charge passed can make at
 // 100 % current efficiency: a weighing or record slip (wet product, product charged at the start).
+import { spanOf } from '../core/positions'
 import { prettyFormula } from '../core/formula'
 import { fmt } from '../core/units'
 import type { Rule } from './rule'
@@ -18,7 +19,7 @@ export const efficiencyOver100: Rule = {
           code: 'efficiency-over-100',
           severity: 'warning' as const,
           message: `the measured ${prettyFormula(y.formula.tok.text)} implies ${fmt(ce * 100)} % current efficiency; check for moisture in the product, product charged before the run, or the charge passed`,
-          span: y.quantity.expr.span,
+          span: spanOf(y.quantity.expr),
           fixes: [],
         },
       ]

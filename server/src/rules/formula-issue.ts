@@ -1,4 +1,5 @@
 // Shared by the formula rules: turn the formula parser's issues of some codes into diagnostics.
+import { spanOf } from '../core/positions'
 import { fix, type Diagnostic } from '../core/diagnostics'
 import type { FormulaIssue } from '../core/formula'
 import type { Model } from '../core/model'
@@ -9,14 +10,14 @@ export function formulaDiagnostics(model: Model, codes: readonly FormulaIssue['c
     if (ff.isWater) continue
     for (const issue of ff.formula.issues) {
       if (!codes.includes(issue.code)) continue
-      const base = ff.tok.span.start
+      const base = ff.tok.start
       const span = { start: base + issue.start, end: base + Math.max(issue.end, issue.start + 1) }
       out.push({
         code: ruleCode,
         severity: issue.severity,
         message: issue.message,
-        span: { start: span.start, end: Math.min(span.end, ff.tok.span.end) },
-        fixes: issue.replacement !== undefined ? [fix(`Change to \`${issue.replacement}\``, ff.tok.span, issue.replacement)] : [],
+        span: { start: span.start, end: Math.min(span.end, ff.tok.end) },
+        fixes: issue.replacement !== undefined ? [fix(`Change to \`${issue.replacement}\``, spanOf(ff.tok), issue.replacement)] : [],
       })
     }
   }

@@ -1,5 +1,6 @@
 // include-file: an `include` that cannot be followed: the path leaves the workspace, the file cannot
 // be read, including it makes a cycle, or the file has lines Cellrun cannot read.
+import { spanOf } from '../core/positions'
 import type { Diagnostic } from '../core/diagnostics'
 import type { Rule } from './rule'
 
@@ -20,7 +21,7 @@ export const includeFile: Rule = {
       for (let li = 0; li < model.tree.lines.length; li++) {
         const n = model.tree.lines[li]
         if (n.kind !== 'include') continue
-        out.push({ code: 'include-file', severity: 'information', message: 'includes are not followed here (no workspace to read from)', span: n.path.span, fixes: [] })
+        out.push({ code: 'include-file', severity: 'information', message: 'includes are not followed here (no workspace to read from)', span: spanOf(n.path), fixes: [] })
       }
     }
     return out

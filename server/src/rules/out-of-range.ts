@@ -1,5 +1,6 @@
 // out-of-range: values outside what is physically possible (a negative mass, an efficiency above
 // 100 %) or outside what an aqueous run can be (a liquid-water temperature at the stated pressure).
+import { spanOf } from '../core/positions'
 import { fix, type Diagnostic } from '../core/diagnostics'
 import { ZERO_CELSIUS } from '../core/constants'
 import { fmt } from '../core/units'
@@ -20,15 +21,15 @@ export const outOfRange: Rule = {
             code: 'out-of-range',
             severity: 'error',
             message: `${q.role} is ${fmt(v)}, which is ${fmt(v * 100)} %; write \`${q.expr.text} %\` for percent`,
-            span: q.expr.span,
-            fixes: [fix('Read it as percent', { start: q.expr.span.end, end: q.expr.span.end }, ' %')],
+            span: spanOf(q.expr),
+            fixes: [fix('Read it as percent', { start: q.expr.end, end: q.expr.end }, ' %')],
           })
         } else if (v > 1 || v <= 0) {
           out.push({
             code: 'out-of-range',
             severity: 'error',
             message: `${q.role} must be above 0 % and at most 100 %; it is ${fmt(v * 100)} %`,
-            span: q.expr.span,
+            span: spanOf(q.expr),
             fixes: [],
           })
         }
@@ -40,7 +41,7 @@ export const outOfRange: Rule = {
           code: 'out-of-range',
           severity: 'error',
           message: `${q.role} must be ${q.constraint === 'positive' ? 'greater than zero' : 'zero or more'}`,
-          span: q.expr.span,
+          span: spanOf(q.expr),
           fixes: [],
         })
       }
@@ -55,7 +56,7 @@ export const outOfRange: Rule = {
           code: 'out-of-range',
           severity: 'warning',
           message: `${fmt(c)} °C is outside the liquid range of water at this pressure; an aqueous run needs 0-100 °C near 1 atm`,
-          span: tq.expr.span,
+          span: spanOf(tq.expr),
           fixes: [],
         })
       }

@@ -1,6 +1,7 @@
 // outside-cell: a part of the cell (compartment, separator, electrode, vessel) that is not indented
 // under a `cell` line. It still counts; the fix indents it.
 import { fix, type Diagnostic } from '../core/diagnostics'
+import { spanOf } from '../core/positions'
 import type { Rule } from './rule'
 
 export const outsideCell: Rule = {
@@ -25,7 +26,7 @@ export const outsideCell: Rule = {
           message: hasCell
             ? `\`${n.keyword?.text}\` describes the cell: ${continuesCell ? 'indent it under the `cell` line' : 'move it, indented, under the `cell` line'}`
             : `\`${n.keyword?.text}\` describes the cell: put it, indented, under a \`cell\` line`,
-          span: n.keyword?.span ?? n.span,
+          span: n.keyword ? spanOf(n.keyword) : n.span,
           fixes: continuesCell && n.indent === 0 ? [fix('Indent under `cell`', { start: lineStart, end: lineStart }, '  ')] : [],
         })
       }

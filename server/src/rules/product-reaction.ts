@@ -1,5 +1,6 @@
 // product-reaction: an `expect`/`observe` product that no electrode reaction makes, or that forms
 // at the other electrode than the compartment named.
+import { spanOf } from '../core/positions'
 import type { Diagnostic } from '../core/diagnostics'
 import type { Rule } from './rule'
 
@@ -15,7 +16,7 @@ export const productReaction: Rule = {
           code: 'product-reaction',
           severity: 'information',
           message: `${y.noReaction}; no theoretical yield is computed for this line`,
-          span: y.formula.tok.span,
+          span: spanOf(y.formula.tok),
           fixes: [],
         })
       }
@@ -25,8 +26,8 @@ export const productReaction: Rule = {
           code: 'product-reaction',
           severity: 'warning',
           message: `${y.formula.tok.text} forms in ${where.join(' and ')}, not in ${y.compartment.text}`,
-          span: y.compartment.span,
-          fixes: where.length === 1 ? [{ title: `Change to \`${where[0]}\``, edits: [{ span: y.compartment.span, newText: where[0] }] }] : [],
+          span: spanOf(y.compartment),
+          fixes: where.length === 1 ? [{ title: `Change to \`${where[0]}\``, edits: [{ span: spanOf(y.compartment), newText: where[0] }] }] : [],
         })
       }
     }

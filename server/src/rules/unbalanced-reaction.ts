@@ -1,5 +1,6 @@
 // unbalanced-reaction: a stated half-reaction whose elements or charge do not balance. The fix
 // writes the smallest whole-number coefficients that balance it (exact rational arithmetic).
+import { spanOf } from '../core/positions'
 import { fix } from '../core/diagnostics'
 import { fmt } from '../core/units'
 import type { Rule } from './rule'
@@ -21,8 +22,8 @@ export const unbalancedReaction: Rule = {
           code: 'unbalanced-reaction',
           severity: 'error' as const,
           message: `the reaction does not balance (right minus left: ${off.join(', ')})${b && !b.ok ? `; ${b.reason}` : ''}`,
-          span: r.equation.span,
-          fixes: b && b.ok ? [fix(`Balance: ${b.text}`, r.equation.span, b.text)] : [],
+          span: spanOf(r.equation),
+          fixes: b && b.ok ? [fix(`Balance: ${b.text}`, spanOf(r.equation), b.text)] : [],
         },
       ]
     })

@@ -1,6 +1,7 @@
 // unknown-kind: a separator kind or a handling kind that Cellrun does not know.
 import { fix, type Diagnostic } from '../core/diagnostics'
-import { HANDLING_KINDS, SEPARATOR_KINDS } from '../core/syntax'
+import { spanOf } from '../core/positions'
+import { HANDLING_KINDS, SEPARATOR_KINDS, type Tok } from '../core/syntax'
 import { closest } from '../core/text'
 import type { Rule } from './rule'
 
@@ -10,15 +11,15 @@ export const unknownKind: Rule = {
   summary: 'A separator kind or handling kind that is not one of the known words.',
   check({ model }) {
     const out: Diagnostic[] = []
-    const check = (tok: { text: string; span: { start: number; end: number } }, known: readonly string[], what: string, severity: 'error' | 'warning') => {
+    const check = (tok: Tok, known: readonly string[], what: string, severity: 'error' | 'warning') => {
       if (known.includes(tok.text)) return
       const guess = closest(tok.text, known)
       out.push({
         code: 'unknown-kind',
         severity,
         message: `unknown ${what} \`${tok.text}\`; expected one of ${known.join(', ')}`,
-        span: tok.span,
-        fixes: guess ? [fix(`Change to \`${guess}\``, tok.span, guess)] : [],
+        span: spanOf(tok),
+        fixes: guess ? [fix(`Change to \`${guess}\``, spanOf(tok), guess)] : [],
       })
     }
     for (const s of model.separators) check(s.type, SEPARATOR_KINDS, 'separator kind', 'error')

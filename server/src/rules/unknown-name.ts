@@ -1,5 +1,6 @@
 // unknown-name: an expression uses a name no `let` defines, or a line names a compartment the
 // cell does not declare. The fix offers the closest declared name.
+import { spanOf } from '../core/positions'
 import { fix, type Diagnostic } from '../core/diagnostics'
 import { closest } from '../core/text'
 import type { Rule } from './rule'
@@ -15,7 +16,7 @@ export const unknownName: Rule = {
     for (const q of model.quantities) {
       const f = q.failure
       if (!f || f.reason !== 'unknown-name' || !f.name) continue
-      const span = { start: q.expr.span.start + f.start, end: q.expr.span.start + f.end }
+      const span = { start: q.expr.start + f.start, end: q.expr.start + f.end }
       const later = laterLets.get(f.name)
       const guess = closest(f.name, valueNames)
       out.push({
@@ -39,8 +40,8 @@ export const unknownName: Rule = {
         message: `no compartment \`${r.tok.text}\` in the cell${
           guess ? `; did you mean \`${guess}\`?` : compartments.length ? ` (declared: ${compartments.join(', ')})` : ' (declare it with `compartment NAME VOLUME` under `cell`)'
         }`,
-        span: r.tok.span,
-        fixes: guess ? [fix(`Change to \`${guess}\``, r.tok.span, guess)] : [],
+        span: spanOf(r.tok),
+        fixes: guess ? [fix(`Change to \`${guess}\``, spanOf(r.tok), guess)] : [],
       })
     }
     return out

@@ -1,5 +1,6 @@
 // wrong-unit: a value of the wrong kind for its place, e.g. a current given in volts. Where the
 // value fits another step clause (a voltage after `current`), the fix changes the clause word.
+import { spanOf } from '../core/positions'
 import { fix, type Fix } from '../core/diagnostics'
 import { KIND_LABEL, prettyUnit } from '../core/units'
 import type { Rule } from './rule'
@@ -23,19 +24,19 @@ export const wrongUnit: Rule = {
       const kw = q.keyword
       if (kw && q.kind !== 'other' && CLAUSE_FOR_KIND[q.kind] && CLAUSE_FOR_KIND[q.kind] !== kw.text) {
         const to = CLAUSE_FOR_KIND[q.kind]
-        fixes.push(fix(`Change \`${kw.text}\` to \`${to}\``, kw.span, to))
+        fixes.push(fix(`Change \`${kw.text}\` to \`${to}\``, spanOf(kw), to))
       }
       if (q.kind === 'dimensionless' && q.expected.length === 1 && q.expected[0] !== 'dimensionless') {
         const unit: Record<string, string> = { mass: 'g', volume: 'mL', time: 'h', current: 'A', voltage: 'V', area: 'cm^2', amount: 'mol' }
         const u = unit[q.expected[0]]
-        if (u) fixes.push(fix(`Add the unit \`${u}\``, { start: q.expr.span.end, end: q.expr.span.end }, ` ${u}`))
+        if (u) fixes.push(fix(`Add the unit \`${u}\``, { start: q.expr.end, end: q.expr.end }, ` ${u}`))
       }
       return [
         {
           code: 'wrong-unit',
           severity: 'error' as const,
           message: `${q.role} must be ${want}, but \`${q.expr.text}\` is ${got}`,
-          span: q.expr.span,
+          span: spanOf(q.expr),
           fixes,
         },
       ]

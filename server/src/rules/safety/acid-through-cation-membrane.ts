@@ -2,6 +2,7 @@
 // a cation-exchange separator. Protons are far more mobile than sodium or potassium, so as the acid
 // builds they carry more and more of the current back through the membrane and the efficiency for
 // the hydroxide collapses.
+import { spanOf } from '../../core/positions'
 import { fix, type Diagnostic } from '../../core/diagnostics'
 import { ionsOf } from '../../core/engine'
 import { parseFormula, prettyFormula } from '../../core/formula'
@@ -99,9 +100,9 @@ export const acidThroughCationMembrane: Rule = {
       code: 'acid-through-cation-membrane',
       severity: 'warning',
       message: `${head}: as the acid builds, protons${ratio} carry more and more of the current through the membrane, so the efficiency collapses${simText}`,
-      span: sep.type.span,
+      span: spanOf(sep.type),
       // Only when the acid is the product is an anion-exchange separator the remedy.
-      fixes: planned ? [fix('Use an anion-exchange separator (the anion moves to the anode side)', sep.type.span, 'anion-exchange')] : [],
+      fixes: planned ? [fix('Use an anion-exchange separator (the anion moves to the anode side)', spanOf(sep.type), 'anion-exchange')] : [],
     }
     return [d]
   },

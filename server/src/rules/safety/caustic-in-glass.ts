@@ -1,6 +1,7 @@
 // caustic-in-glass: a hydroxide (charged, or formed by the run) in a cell whose vessel is glass.
 // Strong alkali dissolves silicate glass, fastest hot and concentrated: an error when the cell
 // reaches 60 °C with 20 wt% hydroxide or more, else a warning.
+import { spanOf } from '../../core/positions'
 import { fix, type Diagnostic } from '../../core/diagnostics'
 import { ionsOf } from '../../core/engine'
 import { parseFormula, prettyFormula } from '../../core/formula'
@@ -115,8 +116,8 @@ export const causticInGlass: Rule = {
       code: 'caustic-in-glass',
       severity: error ? 'error' : 'warning',
       message: `${prettyFormula(strongest.formula)} in ${strongest.compartment} (${how})${conc} in a ${vessel.material.text} vessel: ${why}`,
-      span: vessel.material.span,
-      fixes: [fix('Change the vessel to polypropylene', vessel.material.span, 'polypropylene')],
+      span: spanOf(vessel.material),
+      fixes: [fix('Change the vessel to polypropylene', spanOf(vessel.material), 'polypropylene')],
     }
     return [d]
   },

@@ -54,7 +54,7 @@ export const chromiumAnode: Rule = {
       if (el.role !== 'anode') continue
       const run = chromiumRun(el.material.text)
       if (!run) continue
-      const span: Span = { start: el.material.span.start + run.start, end: el.material.span.start + run.end }
+      const span: Span = { start: el.material.start + run.start, end: el.material.start + run.end }
       const word = el.material.text.slice(run.start, run.end)
       const solution = sharedSolution(model, el.compartment)
       const replacement = chloridesIn(model, solution).length > 0 ? 'mmo-titanium' : e?.ph.get(el.compartment) === 'alkaline' ? 'nickel' : 'platinized-titanium'

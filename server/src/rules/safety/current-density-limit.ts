@@ -4,7 +4,7 @@
 import type { Diagnostic } from '../../core/diagnostics'
 import { fix } from '../../core/diagnostics'
 import type { Model } from '../../core/model'
-import type { Span } from '../../core/positions'
+import { type Span, spanOf } from '../../core/positions'
 import { fmt, fmtDown } from '../../core/units'
 import type { Rule } from '../rule'
 
@@ -172,7 +172,7 @@ export const currentDensityLimit: Rule = {
       if (over.length === 0) continue
       const node = model.tree.lines[s.line]
       const clause = node.kind === 'step' ? node.clauses.find((c) => c.keyword.text === 'current') : undefined
-      const span: Span = clause ? clause.expr.span : s.span
+      const span: Span = clause ? spanOf(clause.expr) : s.span
       const parts = over.map(
         (o) =>
           `${fmt(o.jmAcm2)} mA/cm² on ${o.part} (${fmt(s.currentA!)} A over ${fmt(o.areaCm2)} cm²), above the ${fmt(o.limit.mAcm2)} mA/cm² ${o.limit.name} usually take: ${o.limit.why}`,

@@ -1,6 +1,7 @@
 // nitrogen-trichloride: an ammonium salt, ammonia, an amine or urea is charged into a solution
 // where an anode makes chlorine from chloride: chlorine and the nitrogen compound form nitrogen
 // trichloride (NCl3), a sensitive explosive.
+import { spanOf } from '../../core/positions'
 import type { Diagnostic } from '../../core/diagnostics'
 import { prettyFormula, type Formula } from '../../core/formula'
 import type { Rule } from '../rule'
@@ -38,7 +39,7 @@ export const nitrogenTrichloride: Rule = {
       const n = model.tree.lines[li]
       if (n.kind !== 'charge' || !site.solution.has(n.compartment.text)) continue
       for (const item of n.items) {
-        const ff = model.formulas.find((x) => x.line === n.line && x.tok.span.start === item.formula.span.start)
+        const ff = model.formulas.find((x) => x.line === n.line && x.tok.start === item.formula.start)
         if (!ff || ff.isWater) continue
         const what = nitrogenSource(ff.formula, ff.tok.text)
         if (!what) continue
@@ -48,7 +49,7 @@ export const nitrogenTrichloride: Rule = {
           message:
             `${prettyFormula(ff.tok.text)} (${what}) is charged into ${n.compartment.text}, where chlorine forms (${site.why}): ` +
             'chlorine and the nitrogen compound form nitrogen trichloride, NCl₃, a sensitive explosive',
-          span: ff.tok.span,
+          span: spanOf(ff.tok),
           fixes: [],
         })
       }

@@ -1,6 +1,7 @@
 // soluble-anode: the anode is a metal that dissolves instead of evolving gas, and the cathode does not
 // deposit that metal again (so this is not plating or refining with a soluble anode). Stainless steel
 // and other chromium-bearing anodes are left to chromium-anode, which reports their chromate as an error.
+import { spanOf } from '../../core/positions'
 import { fix } from '../../core/diagnostics'
 import { ATOMIC_WEIGHTS, ELEMENT_NAMES } from '../../core/elements'
 import { prettyFormula } from '../../core/formula'
@@ -42,8 +43,8 @@ export const solubleAnode: Rule = {
         code: 'soluble-anode',
         severity: 'warning',
         message: `the ${a.material} anode dissolves into ${a.compartment} instead of evolving gas, and ${cathode}${amount}`,
-        span: anode.material.span,
-        fixes: [fix(`Use an inert ${inert} anode (${why})`, anode.material.span, inert)],
+        span: spanOf(anode.material),
+        fixes: [fix(`Use an inert ${inert} anode (${why})`, spanOf(anode.material), inert)],
       },
     ]
   },

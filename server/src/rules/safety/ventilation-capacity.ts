@@ -3,7 +3,7 @@
 // vent, with no scrubber, is all that handles it.
 import type { Diagnostic } from '../../core/diagnostics'
 import { fix } from '../../core/diagnostics'
-import type { Span } from '../../core/positions'
+import { type Span, spanOf } from '../../core/positions'
 import { evaluateExpression, fmt } from '../../core/units'
 import type { Rule } from '../rule'
 import { appendLine, handlingOf, litresPerMol, peakGasStep, produced } from './facts'
@@ -77,7 +77,7 @@ export const ventilationCapacity: Rule = {
       const required = peak.lph * DILUTION
       for (const { h, flow } of forHydrogen.length > 0 ? forHydrogen : withFlow) {
         if (flow.lph * (1 + 1e-9) >= required) continue
-        const span: Span = { start: h.text.span.start + flow.start, end: h.text.span.start + flow.end }
+        const span: Span = { start: h.text.start + flow.start, end: h.text.start + flow.end }
         const written = `${fmt(ceil2(required / flow.perUnitLph))} ${flow.unit}`
         out.push({
           code: 'ventilation-capacity',
@@ -100,7 +100,7 @@ export const ventilationCapacity: Rule = {
         code: 'ventilation-capacity',
         severity: 'warning',
         message: `the run makes about ${fmt(cl2 * litresPerMol(model))} L of chlorine (${fmt(cl2)} mol), and a vent is its only handling: no scrubber is declared, so the chlorine reaches the exhaust untreated`,
-        span: vent.text.span,
+        span: spanOf(vent.text),
         fixes: [appendLine(model, `handling scrubber: chlorine off-gas through NaOH solution holding at least ${fmt(naoh)} mol NaOH, then to the vent`)],
       })
     }
