@@ -500,9 +500,12 @@ function salts() {
   return saltTable
 }
 
+const NOTHING_PRECIPITATED: string[] = Object.freeze([]) as unknown as string[]
+
 /** Salts with solubility data whose ions are present; the excess precipitates. Returns the salts that did. */
-function precipitate(s: Solution, T: number): string[] {
-  const out: string[] = []
+function precipitate(s: Solution, T: number): readonly string[] {
+  // Most time steps precipitate nothing: they share one empty list (a list is made on the first salt).
+  let out: string[] = NOTHING_PRECIPITATED
   let water: number | undefined
   for (const x of salts()) {
     const present = Math.min(s.get(x.cat) / x.nc, s.get(x.an) / x.na)
@@ -530,6 +533,7 @@ function precipitate(s: Solution, T: number): string[] {
       s.add(x.cat, -n * x.nc)
       s.add(x.an, -n * x.na)
       s.solids.set(x.key, (s.solids.get(x.key) ?? 0) + n)
+      if (out === NOTHING_PRECIPITATED) out = []
       out.push(x.key)
     }
   }
@@ -656,7 +660,9 @@ export function simulate(input: SimInput): SimResult {
         if (divided && sep === 'diaphragm') mix(a, c, dt, state.mixedIn)
         for (const s of sols) {
           equilibrate(s, dt, state.T, state.gases)
-          for (const salt of precipitate(s, state.T)) {
+          const crystallised = precipitate(s, state.T)
+          for (let i = 0; i < crystallised.length; i++) {
+            const salt = crystallised[i]
             event('saturated', `sat:${s.name}:${salt}`, time, step.line, `${prettyFormula(salt)} reaches saturation in ${s.name} and starts to crystallise`, s.name)
           }
         }
