@@ -5,7 +5,7 @@ import fc from 'fast-check'
 import { describe, expect, it } from 'vitest'
 import { commentStart, IDENT_AT, identEnd, LETTERS_AT, lettersEnd, parse, trailingIn, WORD_AT, wordAt, wordEnd } from '../server/src/core/parser'
 import { isWhiteSpace } from '../server/src/core/text'
-import type { LineNode } from '../server/src/core/syntax'
+import { keywordOf, type LineNode } from '../server/src/core/syntax'
 import { covered, marked } from './support/markers'
 
 function only<K extends LineNode['kind']>(src: string, kind: K): Extract<LineNode, { kind: K }> {
@@ -274,5 +274,51 @@ describe('tokens read in place', () => {
       }),
       { numRuns: 6000, seed: 67 },
     )
+  })
+})
+
+describe('the keyword of a line', () => {
+  it('is the first word of the statement, where it stands, for every kind of line', () => {
+    // The oracle is the line's text: the word (letters and hyphens) the statement starts with.
+    const lines = [
+      'run "KOH batch"',
+      'note sample taken',
+      'conditions 25 degC',
+      'let area = 36 cm^2',
+      'cell',
+      '  vessel polypropylene',
+      '  compartment feed 1 L',
+      '  separator cation-exchange between feed and product',
+      '  anode mmo-titanium in feed',
+      '  cathode nickel in product, area 36 cm^2',
+      'charge feed: KCl 300 g, water 1 L',
+      'step 1: current 2 A for 1 h',
+      'expect KOH 25 g in product',
+      'observe H2 3 L',
+      'reaction anode: 2 Cl- -> Cl2 + 2 e-',
+      'material house-mmo: Ti mesh',
+      'include "defs.cellrun"',
+      'handling vent: H2 outdoors',
+      '   stpe 1: current 2 A  # a misspelt keyword',
+      '',
+      '# only a comment',
+    ]
+    const text = lines.join('\n')
+    const tree = parse(text)
+    const seen = new Set<string>()
+    for (const n of tree.lines) {
+      const kw = keywordOf(n)
+      const line = lines[n.line]
+      const first = /^\s*([A-Za-z][A-Za-z-]*)/.exec(line.replace(/#.*$/, ''))
+      if (!first) {
+        expect(kw, line).toBeUndefined()
+        continue
+      }
+      expect(kw, line).toBeDefined()
+      expect(text.slice(kw!.start, kw!.end), line).toBe(first[1])
+      expect(kw!.text, line).toBe(first[1])
+      seen.add(n.kind)
+    }
+    expect(seen.size).toBeGreaterThanOrEqual(17)
   })
 })

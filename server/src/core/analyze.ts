@@ -9,7 +9,7 @@ import { buildModel, engineRuns, simulationRuns, type Computed, type Model, type
 import { parse, reparse } from './parser'
 import { clearSimulationCaches } from './simulate'
 import { spanOf, LineIndex, type Span } from './positions'
-import type { LineNode, SyntaxTree } from './syntax'
+import { keywordOf, type LineNode, type SyntaxTree } from './syntax'
 import { clearExpressionCache, fmt, withGasUnit, withSignificantFigures } from './units'
 
 export interface Analysis {
@@ -197,7 +197,7 @@ export function outline(a: Analysis): OutlineItem[] {
             : n.kind === 'separator'
               ? item(n, 'separator', n.type.text, `${n.between[0].text} | ${n.between[1].text}`, spanOf(n.type))
               : n.kind === 'electrode'
-                ? item(n, 'electrode', n.role, `${n.material.text} in ${n.compartment.text}`, (n.keyword ? spanOf(n.keyword) : n.span))
+                ? item(n, 'electrode', n.role, `${n.material.text} in ${n.compartment.text}`, spanOf(keywordOf(n) ?? n.span))
                 : item(n, 'vessel', 'vessel', n.material.text, spanOf(n.material))
         if (cell && n.inCell) {
           cell.children.push(child)

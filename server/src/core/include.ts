@@ -4,7 +4,7 @@
 // caller supplies the reader (the CLI reads the disk; the language server its open documents first).
 import { parse } from './parser'
 import { type Span, spanOf } from './positions'
-import { CELL_KEYWORDS, type LineNode } from './syntax'
+import { CELL_KEYWORDS, keywordOf, type LineNode } from './syntax'
 
 export interface IncludeOptions {
   /** Absolute path of the document being analysed ('/'-separated). */
@@ -38,7 +38,7 @@ function dirname(p: string): string {
 
 /** Is this line a definition an include takes: a `let`, a `material`, the `cell` line or a part of the cell? */
 function isDefinition(n: LineNode): boolean {
-  return n.kind === 'let' || n.kind === 'cell' || n.kind === 'material' || (CELL_KEYWORDS as readonly string[]).includes(n.keyword?.text ?? '')
+  return n.kind === 'let' || n.kind === 'cell' || n.kind === 'material' || (CELL_KEYWORDS as readonly string[]).includes(keywordOf(n)?.text ?? '')
 }
 
 /**

@@ -252,7 +252,6 @@ function parseLine(raw: string, base: number, line: number, inCell: boolean): Li
   const kwEnd = keywordEnd(content, indent)
   const kwMatch = kwEnd > indent
   const kwText = kwMatch ? knownKeyword(content, indent, kwEnd) ?? content.slice(indent, kwEnd) : ''
-  const keyword: Tok = { text: kwText, start: base + indent, end: base + indent + kwText.length }
   // One cursor serves every line (parsing is not re-entrant): no object per line.
   const s = CURSOR.reset(content, base, indent + kwText.length)
   try {
@@ -284,16 +283,16 @@ function parseLine(raw: string, base: number, line: number, inCell: boolean): Li
         s.ws()
         const title = s.quoted() ?? s.restTok('a title, e.g. `run "KOH batch 7"`')
         s.end()
-        return { kind: 'run', line, indent, span, comment, keyword, title }
+        return { kind: 'run', line, indent, span, comment, title }
       }
       case 'note': {
         s.ws()
-        return { kind: 'note', line, indent, span, comment, keyword, text: s.restTok('the note text') }
+        return { kind: 'note', line, indent, span, comment, text: s.restTok('the note text') }
       }
       case 'conditions': {
         s.ws()
         const items = s.splitTop(',', s.rest()).map((t) => s.needExpr(t, 'a temperature or pressure'))
-        return { kind: 'conditions', line, indent, span, comment, keyword, items }
+        return { kind: 'conditions', line, indent, span, comment, items }
       }
       case 'let': {
         s.ws1('a name')
@@ -301,23 +300,23 @@ function parseLine(raw: string, base: number, line: number, inCell: boolean): Li
         s.ws()
         s.lit('=', '`=` after the name')
         s.ws()
-        return { kind: 'let', line, indent, span, comment, keyword, name, expr: s.restTok('a value after `=`') }
+        return { kind: 'let', line, indent, span, comment, name, expr: s.restTok('a value after `=`') }
       }
       case 'cell':
         s.ws()
         s.end('`cell` stands alone on its line; its parts follow, indented')
-        return { kind: 'cell',  line, indent, span, comment, keyword }
+        return { kind: 'cell',  line, indent, span, comment }
       case 'vessel': {
         s.ws1('a material')
         const material = s.restTok('a vessel material, e.g. `vessel polypropylene`')
-        return { kind: 'vessel', line, indent, span, comment, keyword, material, inCell: childOfCell }
+        return { kind: 'vessel', line, indent, span, comment, material, inCell: childOfCell }
       }
       case 'compartment': {
         s.ws1('a name')
         const name = s.ident('a compartment name, e.g. `compartment anolyte 500 mL`')
         s.ws1('a volume')
         const volume = s.restTok('the liquid volume, e.g. `500 mL`')
-        return { kind: 'compartment', line, indent, span, comment, keyword, name, volume, inCell: childOfCell }
+        return { kind: 'compartment', line, indent, span, comment, name, volume, inCell: childOfCell }
       }
       case 'separator': {
         s.ws1('a separator kind')
@@ -332,7 +331,7 @@ function parseLine(raw: string, base: number, line: number, inCell: boolean): Li
         const opts = s.optionalClauses(['area', 'drag'])
         return {
           kind: 'separator',
-          line, indent, span, comment, keyword,
+          line, indent, span, comment,
           type,
           between: [a, b],
           ...(opts.area ? { area: opts.area } : {}),
@@ -350,7 +349,7 @@ function parseLine(raw: string, base: number, line: number, inCell: boolean): Li
         const area = s.optionalArea()
         return {
           kind: 'electrode',
-          line, indent, span, comment, keyword,
+          line, indent, span, comment,
           role: kwText as 'anode' | 'cathode',
           material,
           compartment,
@@ -366,7 +365,7 @@ function parseLine(raw: string, base: number, line: number, inCell: boolean): Li
         s.ws()
         const items = s.splitTop(',', s.rest()).map((t) => parseChargeItem(s, t))
         if (items.length === 0) throw new LineError('expected what is charged, e.g. `NaCl 300 g, water 1 L`', s.pos)
-        return { kind: 'charge', line, indent, span, comment, keyword, compartment, items }
+        return { kind: 'charge', line, indent, span, comment, compartment, items }
       }
       case 'step': {
         s.ws1('a step label')
@@ -375,7 +374,7 @@ function parseLine(raw: string, base: number, line: number, inCell: boolean): Li
         s.lit(':', '`:` after the step label')
         s.ws()
         const clauses = parseClauses(s)
-        return { kind: 'step', line, indent, span, comment, keyword, label, clauses }
+        return { kind: 'step', line, indent, span, comment, label, clauses }
       }
       case 'expect':
       case 'observe': {
@@ -391,7 +390,7 @@ function parseLine(raw: string, base: number, line: number, inCell: boolean): Li
           const nameStart = restTok.start + inAt.nameStart
           compartment = { text: restTok.text.slice(inAt.nameStart, inAt.nameEnd), start: nameStart, end: restTok.start + inAt.nameEnd }
         }
-        return { kind: kwText === 'expect' ? 'expect' : 'observe', line, indent, span, comment, keyword, formula, quantity: main, alternate, compartment }
+        return { kind: kwText === 'expect' ? 'expect' : 'observe', line, indent, span, comment, formula, quantity: main, alternate, compartment }
       }
       case 'reaction': {
         s.ws1('`anode` or `cathode`')
@@ -409,24 +408,24 @@ function parseLine(raw: string, base: number, line: number, inCell: boolean): Li
         s.lit(':', '`:` after the electrode')
         s.ws()
         const equation = s.restTok('the half-reaction, e.g. `2 Cl- -> Cl2 + 2 e-`')
-        return { kind: 'reaction', line, indent, span, comment, keyword, role, equation }
+        return { kind: 'reaction', line, indent, span, comment, role, equation }
       }
       case 'material': {
         s.ws1('a material name')
         const name = s.word('a material name, e.g. `material house-mmo: Ti mesh with RuO2/IrO2 coating`')
         s.ws()
-        if (s.pos >= content.length) return { kind: 'material', line, indent, span, comment, keyword, name }
+        if (s.pos >= content.length) return { kind: 'material', line, indent, span, comment, name }
         s.lit(':', '`:` before the description')
         s.ws()
         const description = s.restTok('a description after `:`')
-        return { kind: 'material', line, indent, span, comment, keyword, name, description }
+        return { kind: 'material', line, indent, span, comment, name, description }
       }
       case 'include': {
         s.ws()
         const path = s.quoted()
         if (!path || path.text.trim() === '') throw new LineError('expected a quoted path, e.g. `include "house/cell.cellrun"`', s.pos)
         s.end()
-        return { kind: 'include', line, indent, span, comment, keyword, path }
+        return { kind: 'include', line, indent, span, comment, path }
       }
       case 'handling': {
         s.ws1('a kind')
@@ -434,7 +433,7 @@ function parseLine(raw: string, base: number, line: number, inCell: boolean): Li
         s.ws()
         s.lit(':', '`:` after the handling kind')
         s.ws()
-        return { kind: 'handling', line, indent, span, comment, keyword, type, text: s.restTok('what is arranged, e.g. `handling vent: H2 piped outdoors`') }
+        return { kind: 'handling', line, indent, span, comment, type, text: s.restTok('what is arranged, e.g. `handling vent: H2 piped outdoors`') }
       }
     }
     throw new LineError(`unknown statement \`${kwText}\``, indent, indent + kwText.length)
@@ -448,7 +447,7 @@ function parseLine(raw: string, base: number, line: number, inCell: boolean): Li
       indent,
       span,
       comment,
-      keyword: kwMatch ? keyword : undefined,
+      keyword: kwMatch ? { text: kwText, start: base + indent, end: base + indent + kwText.length } : undefined,
       message: e.message,
       errorSpan: { start: base + at, end: base + (end === at && at < content.length ? at + 1 : end) },
       ...(e.fix

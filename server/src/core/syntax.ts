@@ -37,8 +37,6 @@ interface Base {
   span: Span
   /** Indentation width in characters. */
   indent: number
-  /** The statement keyword, when the line has one. */
-  keyword?: Tok
   /** A trailing `# comment`, if any. */
   comment?: Span
 }
@@ -71,9 +69,29 @@ export type LineNode =
   | (Base & { kind: 'reaction'; role: Tok; equation: Tok })
   | (Base & { kind: 'include'; path: Tok })
   | (Base & { kind: 'material'; name: Tok; description?: Tok })
-  | (Base & { kind: 'error'; message: string; errorSpan: Span; fix?: { span: Span; newText: string; title: string } })
+  | (Base & {
+      kind: 'error'
+      message: string
+      errorSpan: Span
+      fix?: { span: Span; newText: string; title: string }
+      /** The word the line starts with, when it is written like a keyword (known or not). */
+      keyword?: Tok
+    })
 
 export type NodeKind = LineNode['kind']
+
+/**
+ * The statement keyword of a line, where it stands: the first word of every statement (`anode` or
+ * `cathode` for an electrode), the word an error line starts with when it reads like a keyword, and
+ * nothing for a blank line. Worked out from the node (a node does not carry a token for it: the
+ * keyword is known from its kind and starts where the statement does).
+ */
+export function keywordOf(n: LineNode): Tok | undefined {
+  if (n.kind === 'blank') return undefined
+  if (n.kind === 'error') return n.keyword
+  const text = n.kind === 'electrode' ? n.role : n.kind
+  return { text, start: n.span.start, end: n.span.start + text.length }
+}
 
 export interface SyntaxTree {
   text: string

@@ -15,7 +15,7 @@
 import type { Analysis } from './analyze'
 import { type Span, spanOf } from './positions'
 import { connectives, expressionsOf, isUnitName, letNames, scanExpression } from './scan'
-import type { LineNode } from './syntax'
+import { keywordOf, type LineNode } from './syntax'
 
 export const TOKEN_TYPES = ['keyword', 'variable', 'type', 'struct', 'number', 'operator', 'function', 'label', 'string', 'comment'] as const
 export const TOKEN_MODIFIERS = ['declaration', 'readonly', 'defaultLibrary'] as const
@@ -36,7 +36,8 @@ export function semanticTokens(a: Analysis): SemanticToken[] {
     if (span && span.end > span.start) out.push({ span, type, modifiers })
   }
   for (const n of a.tree.lines) {
-    if (n.keyword && n.kind !== 'error') add(spanOf(n.keyword), 'keyword')
+    const kw = n.kind === 'error' ? undefined : keywordOf(n)
+    if (kw) add(spanOf(kw), 'keyword')
     lineTokens(a, n, add)
     for (const s of connectives(a.text, n)) add(s, 'keyword')
     for (const e of expressionsOf(n)) {

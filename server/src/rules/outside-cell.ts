@@ -2,6 +2,7 @@
 // under a `cell` line. It still counts; the fix indents it.
 import { fix, type Diagnostic } from '../core/diagnostics'
 import { spanOf } from '../core/positions'
+import { keywordOf } from '../core/syntax'
 import type { Rule } from './rule'
 
 export const outsideCell: Rule = {
@@ -24,9 +25,9 @@ export const outsideCell: Rule = {
           code: 'outside-cell',
           severity: 'warning',
           message: hasCell
-            ? `\`${n.keyword?.text}\` describes the cell: ${continuesCell ? 'indent it under the `cell` line' : 'move it, indented, under the `cell` line'}`
-            : `\`${n.keyword?.text}\` describes the cell: put it, indented, under a \`cell\` line`,
-          span: n.keyword ? spanOf(n.keyword) : n.span,
+            ? `\`${keywordOf(n)?.text}\` describes the cell: ${continuesCell ? 'indent it under the `cell` line' : 'move it, indented, under the `cell` line'}`
+            : `\`${keywordOf(n)?.text}\` describes the cell: put it, indented, under a \`cell\` line`,
+          span: spanOf(keywordOf(n) ?? n.span),
           fixes: continuesCell && n.indent === 0 ? [fix('Indent under `cell`', { start: lineStart, end: lineStart }, '  ')] : [],
         })
       }
