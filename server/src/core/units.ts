@@ -202,6 +202,9 @@ const hasOwn = (o: object, k: string) => Object.prototype.hasOwnProperty.call(o,
  */
 export function isValuelessUnitFast(name: string): boolean {
   const units = (UnitClass as unknown as { UNITS: UnitTable }).UNITS
+  // Every unit name (prefixed or not) ends as some unit's name ends: a name whose last character
+  // ends none (`j12`) is not a unit, found without a look-up or a copy.
+  if (!unitEndings(units).has(name.charCodeAt(name.length - 1))) return false
   if (hasOwn(units, name)) return true
   for (let i = 1; i < name.length; i++) {
     const unitName = name.slice(i)
@@ -211,6 +214,20 @@ export function isValuelessUnitFast(name: string): boolean {
     if (hasOwn(prefixes, prefix) && prefixes[prefix] !== undefined) return true
   }
   return false
+}
+
+/**
+ * The last characters of the unit names, read from the table when first asked (after this module
+ * has added its own units; expressions cannot create units: createUnit is disabled).
+ */
+let endings: { table: UnitTable; codes: Set<number> } | undefined
+function unitEndings(units: UnitTable): Set<number> {
+  if (!endings || endings.table !== units) {
+    const codes = new Set<number>()
+    for (const u in units) if (hasOwn(units, u)) codes.add(u.charCodeAt(u.length - 1))
+    endings = { table: units, codes }
+  }
+  return endings.codes
 }
 
 interface NodeInfo {

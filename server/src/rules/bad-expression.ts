@@ -1,5 +1,6 @@
 // bad-expression: an expression that cannot be read, uses something the sandbox refuses, is too
 // long or too deep, or cannot be computed (e.g. adding a mass to a volume).
+import type { Diagnostic } from '../core/diagnostics'
 import type { Rule } from './rule'
 
 export const badExpression: Rule = {
@@ -7,20 +8,21 @@ export const badExpression: Rule = {
   severity: 'error',
   summary: 'An expression that cannot be read or computed, or uses a construct that is not allowed.',
   check({ model }) {
-    return model.quantities.flatMap((q) => {
+    // A loop over every quantity of the document: most have no failure and cost nothing.
+    const out: Diagnostic[] = []
+    for (const q of model.quantities) {
       const f = q.failure
-      if (!f || f.reason === 'unknown-name') return []
+      if (!f || f.reason === 'unknown-name') continue
       const start = q.expr.start + f.start
       const end = q.expr.start + Math.max(f.end, f.start)
-      return [
-        {
-          code: 'bad-expression',
-          severity: 'error' as const,
-          message: `${f.message} (in ${q.role})`,
-          span: end > start ? { start, end } : { start: q.expr.start, end: q.expr.end },
-          fixes: [],
-        },
-      ]
-    })
+      out.push({
+        code: 'bad-expression',
+        severity: 'error',
+        message: `${f.message} (in ${q.role})`,
+        span: end > start ? { start, end } : { start: q.expr.start, end: q.expr.end },
+        fixes: [],
+      })
+    }
+    return out
   },
 }

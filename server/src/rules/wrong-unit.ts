@@ -1,7 +1,7 @@
 // wrong-unit: a value of the wrong kind for its place, e.g. a current given in volts. Where the
 // value fits another step clause (a voltage after `current`), the fix changes the clause word.
 import { spanOf } from '../core/positions'
-import { fix, type Fix } from '../core/diagnostics'
+import { fix, type Diagnostic, type Fix } from '../core/diagnostics'
 import { KIND_LABEL, prettyUnit } from '../core/units'
 import type { Rule } from './rule'
 
@@ -12,9 +12,11 @@ export const wrongUnit: Rule = {
   severity: 'error',
   summary: 'A value whose unit does not fit where it stands (a current in volts, a mass where a volume belongs).',
   check({ model }) {
-    return model.quantities.flatMap((q) => {
-      if (q.value === undefined || q.kind === undefined || q.anyKind) return []
-      if (q.kind !== 'other' && q.expected.includes(q.kind)) return []
+    // A loop over every quantity of the document: most are of the kind expected and cost nothing.
+    const out: Diagnostic[] = []
+    for (const q of model.quantities) {
+      if (q.value === undefined || q.kind === undefined || q.anyKind) continue
+      if (q.kind !== 'other' && q.expected.includes(q.kind)) continue
       const got =
         q.kind === 'other'
           ? `a quantity in ${prettyUnit(typeof q.value === 'number' ? '' : q.value.formatUnits())}`
@@ -31,15 +33,14 @@ export const wrongUnit: Rule = {
         const u = unit[q.expected[0]]
         if (u) fixes.push(fix(`Add the unit \`${u}\``, { start: q.expr.end, end: q.expr.end }, ` ${u}`))
       }
-      return [
-        {
-          code: 'wrong-unit',
-          severity: 'error' as const,
-          message: `${q.role} must be ${want}, but \`${q.expr.text}\` is ${got}`,
-          span: spanOf(q.expr),
-          fixes,
-        },
-      ]
-    })
+      out.push({
+        code: 'wrong-unit',
+        severity: 'error',
+        message: `${q.role} must be ${want}, but \`${q.expr.text}\` is ${got}`,
+        span: spanOf(q.expr),
+        fixes,
+      })
+    }
+    return out
   },
 }
