@@ -679,7 +679,8 @@ function bookkeep(input: EngineInput, r: EngineResult, full: boolean): Book {
         }
       }
     }
-    if (ledger) steps.push({ line: s.line, products: ledger.products, notes: notes ?? NO_NOTES })
+    // The products as a list at its size (the ledger's, grown by push, keeps room for 16 more).
+    if (ledger) steps.push({ line: s.line, products: ledger.products.slice(), notes: notes ?? NO_NOTES })
   }
   return { total, steps }
 }

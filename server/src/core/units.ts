@@ -290,7 +290,9 @@ function compile(text: string, shortcut = true): CompileResult {
         names.push({ name, start: at, end: at + name.length, isUnit })
         if (isUnit && !unitSymbols.includes(name)) unitSymbols = unitSymbols === NO_UNITS ? oneUnit(name) : [...unitSymbols, name]
       }
-      return { ok: true, tree: simple, names, unitSymbols, lastInputs: undefined, lastResult: undefined }
+      // A copy at its size: the list grown by push keeps room for 16 more names (130 bytes per
+      // expression, kept with the compiled expression).
+      return { ok: true, tree: simple, names: names.slice(), unitSymbols, lastInputs: undefined, lastResult: undefined }
     }
   }
   const norm = normalise(text)
@@ -402,7 +404,7 @@ function compile(text: string, shortcut = true): CompileResult {
   // cost more than the rest of a first analysis.) A unit raised to a huge power (`1 m^1e9`, `(1 A)^x`
   // with a large `x`) has a finite value but no meaning: refused here, whatever the exponent came
   // from (the caller reports what this throws).
-  return { ok: true, tree: root, names, unitSymbols: unitSymbols.size === 0 ? NO_UNITS : [...unitSymbols], lastInputs: undefined, lastResult: undefined }
+  return { ok: true, tree: root, names: names.slice(), unitSymbols: unitSymbols.size === 0 ? NO_UNITS : [...unitSymbols], lastInputs: undefined, lastResult: undefined }
 }
 
 const NO_UNITS: string[] = []
@@ -760,18 +762,21 @@ function unitProduct(a: Unit, b: Unit | number, divide: boolean): unknown {
   const res = new BlankUnit()
   res.fixPrefix = x.fixPrefix
   res.skipAutomaticSimplification = y ? false : x.skipAutomaticSimplification
-  const units = res.units
-  // Indexed loops (the lists may be frozen: see scaledUnit).
-  for (let i = 0; i < x.units.length; i++) {
+  // The list made at its size (a list grown by push keeps room for 16 more parts: 130 bytes per
+  // value, kept as long as the value is), filled by index (the lists read may be frozen: see scaledUnit).
+  const nx = x.units.length
+  const units: UnitParts['units'] = new Array(nx + (y ? y.units.length : 0))
+  for (let i = 0; i < nx; i++) {
     const u = x.units[i]
-    units.push({ unit: u.unit, prefix: u.prefix, power: u.power })
+    units[i] = { unit: u.unit, prefix: u.prefix, power: u.power }
   }
   if (y) {
     for (let i = 0; i < y.units.length; i++) {
       const u = y.units[i]
-      units.push({ unit: u.unit, prefix: u.prefix, power: divide ? -u.power : u.power })
+      units[nx + i] = { unit: u.unit, prefix: u.prefix, power: divide ? -u.power : u.power }
     }
   }
+  res.units = units
   // The constructor's dimensions are a fresh array of zeros, one per base dimension.
   const dims = res.dimensions
   let dimensionless = true
