@@ -390,7 +390,9 @@ class Solution {
       if (solids === NO_SOLIDS) solids = {}
       solids[k] = this.solids.get(k)!
     }
-    const snap: CompartmentSnapshot = {
+    const chosen = main ? this.productOf(main) : m
+    // Every field in the literal (main undefined when there is none): one layout, all in the object.
+    return {
       name: this.name,
       species,
       solids,
@@ -398,10 +400,8 @@ class Solution {
       massG: total,
       volumeL: V,
       ph: this.ph(),
+      main: chosen && chosen.mol > 0 ? { formula: chosen.formula, mol: chosen.mol, wtPercent: (100 * chosen.mol * chosen.mass) / total, molPerL: chosen.mol / V } : undefined,
     }
-    const chosen = main ? this.productOf(main) : m
-    if (chosen && chosen.mol > 0) snap.main = { formula: chosen.formula, mol: chosen.mol, wtPercent: (100 * chosen.mol * chosen.mass) / total, molPerL: chosen.mol / V }
-    return snap
   }
   /** Amount of a given salt/base formula present as its ions. */
   productOf(formula: string): { formula: string; mol: number; mass: number } | undefined {
