@@ -279,17 +279,20 @@ function compile(text: string, shortcut = true): CompileResult {
   // they are read: their names and places come from the scan, not from walking the tree and
   // searching the text again. A test checks both ways give the same names, places and units.
   if (shortcut && isPlain(text)) {
-    const symbols: { name: string; at: number }[] = []
-    const simple = simpleTree(text, symbols)
+    const simple = simpleTree(text, true)
     if (simple) {
       const names: Compiled['names'] = []
       let unitSymbols: string[] = NO_UNITS
-      for (const { name, at } of symbols) {
+      for (let i = 0; i < symbolCount; i++) {
+        const name = symbolNames[i]
+        const at = symbolAts[i]
         if (CONSTANTS.has(name)) continue
         const isUnit = isUnitName(name)
         names.push({ name, start: at, end: at + name.length, isUnit })
         if (isUnit && !unitSymbols.includes(name)) unitSymbols = unitSymbols === NO_UNITS ? oneUnit(name) : [...unitSymbols, name]
       }
+      // An expression of thousands of names does not leave its room behind.
+      if (symbolNames.length > 256) symbolNames.length = symbolAts.length = 0
       // A copy at its size: the list grown by push keeps room for 16 more names (130 bytes per
       // expression, kept with the compiled expression).
       return { ok: true, tree: simple, names: names.slice(), unitSymbols, lastInputs: undefined, lastResult: undefined }
@@ -472,23 +475,31 @@ function operatorNode(op: string, fn: string, args: MathNode[], implicit = false
   return { type: 'OperatorNode', op, fn, args, implicit, isPercentage } as unknown as MathNode
 }
 
-export function simpleTree(t: string, symbols?: { name: string; at: number }[]): MathNode | undefined {
+/**
+ * `record`: also note each name and where it stands, in the order a walk of the tree meets them,
+ * in symbolNames and symbolAts (symbolCount of them), read by the caller before the next call.
+ */
+export function simpleTree(t: string, record = false): MathNode | undefined {
   // The reader's state is kept at module level (reset here; simpleTree never calls itself), so that
-  // reading an expression makes no closures.
+  // reading an expression makes no closures, and the names it records make no objects.
   rt = t
   ri = 0
-  rsymbols = symbols
+  recording = record
+  symbolCount = 0
   try {
     return readSimple()
   } finally {
     rt = ''
-    rsymbols = undefined
+    recording = false
   }
 }
 
 let rt = ''
 let ri = 0
-let rsymbols: { name: string; at: number }[] | undefined
+let recording = false
+const symbolNames: string[] = []
+const symbolAts: number[] = []
+let symbolCount = 0
 
 /** White space the parser skips, from `ri`; how much. */
 function rSkip(): number {
@@ -516,7 +527,11 @@ function rName(): string | null | undefined {
 function rPowered(w: string): MathNode | undefined {
   const sym = symbolNode(w)
   // Each name where it stands (the name was just read), in the order a walk of the tree meets them.
-  rsymbols?.push({ name: w, at: ri - w.length })
+  if (recording) {
+    symbolNames[symbolCount] = w
+    symbolAts[symbolCount] = ri - w.length
+    symbolCount++
+  }
   const back = ri
   rSkip()
   if (rt.charCodeAt(ri) !== 94 /* ^ */) {
