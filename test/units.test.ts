@@ -575,6 +575,24 @@ describe('numbers in a kind\'s unit are mathjs\'s numbers', () => {
     )
     expect(compared).toBeGreaterThan(1500)
   })
+
+  it('two values have the same base dimensions exactly when mathjs\'s equalBase says so', () => {
+    // The oracle is mathjs's Unit.equalBase; the values include fractional powers (sqrt) within and
+    // beyond its 1e-12 tolerance.
+    const vals = [...UNITS.map((u) => sandbox.unitValue(u)), ...['sqrt(4 m^2)', 'sqrt(2 m^2) * sqrt(2 m^2) / m', '(1 m)^(1/3)', '(1 m)^(0.3333333333333)', '2 A / m^2', '3 mA/cm^2'].map((t) => {
+      const r = evaluateExpression(t, EMPTY)
+      return r.ok && typeof r.value !== 'number' ? r.value : sandbox.unitValue('m')
+    })]
+    let same = 0
+    for (const a of vals) {
+      for (const b of vals) {
+        const theirs = a.equalBase(b)
+        expect(sandbox.sameBase(a, b), `${a.toString()} / ${b.toString()}`).toBe(theirs)
+        if (theirs) same++
+      }
+    }
+    expect(same).toBeGreaterThan(vals.length)
+  })
 })
 
 describe('a number times a unit is mathjs\'s product', () => {

@@ -1217,7 +1217,7 @@ export function inKindUnit(v: Value, kind: Kind): number {
 function numberIn(v: Unit, ref: Unit): number {
   const u = v as unknown as UnitParts
   const r = ref as unknown as UnitParts
-  if (typeof u.value !== 'number' || !v.equalBase(ref)) return v.toNumber(ref as unknown as string)
+  if (typeof u.value !== 'number' || !sameBase(u, r)) return v.toNumber(ref as unknown as string)
   let x = u.value
   const derived = u.units.length > 1 || (u.units.length === 1 && Math.abs(u.units[0].power - 1.0) > 1e-15)
   if (!(derived || u.units.length === 0 || r.units.length === 0 || u.units[0].unit.offset === r.units[0].unit.offset)) {
@@ -1228,6 +1228,14 @@ function numberIn(v: Unit, ref: Unit): number {
     x = x / Math.pow(part.unit.value * part.prefix.value, part.power)
   }
   return x
+}
+
+/** Unit.equalBase, as mathjs writes it (each base dimension within 1e-12), on the parts directly. */
+function sameBase(a: UnitParts, b: UnitParts): boolean {
+  for (let i = 0; i < BASE_DIMENSIONS.length; i++) {
+    if (Math.abs((a.dimensions[i] || 0) - (b.dimensions[i] || 0)) > 1e-12) return false
+  }
+  return true
 }
 
 const numbers = new WeakMap<Unit, number>()
@@ -1381,6 +1389,10 @@ export const sandbox = {
   /** The end of the token at `i` as simpleTree's scanners find it, to check against the patterns. */
   tokenEnd(re: RegExp, t: string, i: number): number {
     return re === NAME_AT ? nameEnd(t, i) : re === INTEGER_AT ? digitsEnd(t, i) : numberEnd(t, i)
+  },
+  /** sameBase, to check against mathjs's Unit.equalBase. */
+  sameBase(a: Unit, b: Unit): boolean {
+    return sameBase(a as unknown as UnitParts, b as unknown as UnitParts)
   },
   /** scaledUnit, to check against mathjs's multiply. */
   scaledUnit(unit: Unit, x: number): Unit | undefined {
