@@ -1521,7 +1521,7 @@ class Evaluator {
     const comp = compName ? this.m.compartments.get(compName) : undefined
     const engine = this.m.engine
     const cellKnown = !!engine?.anode && !!engine.cathode
-    const formed = cellKnown ? engine!.totals.filter((p) => sameSubstance(p.formula, f)) : []
+    const formed = cellKnown ? productsOf(engine!.totals, f) : NO_PRODUCTS
     // Without a described cell, fall back to the usual reaction for the product.
     const fallback = cellKnown ? undefined : productReaction(f, this.saltsIn(compName))
     const gas = formed.length ? formed[0].gas : fallback?.ok ? fallback.reaction.gas : KNOWN_GASES.has(ff.tok.text)
@@ -1574,14 +1574,16 @@ class Evaluator {
         return
       }
       if (comp) {
-        here = formed.filter((p) => p.compartment === comp.name)
+        here = formedIn(formed, comp.name)
         if (here.length === 0) {
           y.wrongCompartment = { formedIn: [...new Set(formed.map((p) => p.compartment))] }
           here = formed
         }
       }
       y.reaction = this.reactionOf(here[0])
-      y.maxMolEff = here.reduce((t, p) => t + p.mol, 0)
+      let maxMolEff = 0
+      for (let i = 0; i < here.length; i++) maxMolEff = maxMolEff + here[i].mol
+      y.maxMolEff = maxMolEff
       // Current efficiency is measured against Faraday's law for the whole charge (n(e⁻)/z),
       // whatever the feed allowed.
       y.maxMol100 = this.m.totals.electronMol / here[0].electrons
@@ -1644,6 +1646,31 @@ class Evaluator {
     if (out.length === 0 && comp) return this.saltsIn(undefined)
     return out
   }
+}
+
+const NO_PRODUCTS: Product[] = Object.freeze([]) as unknown as Product[]
+
+/**
+ * The products that are this substance (same elements and charge), in order: a list at its size,
+ * made by a loop (this runs for every yield line), or one shared empty list when there are none.
+ */
+function productsOf(totals: readonly Product[], f: Formula): Product[] {
+  let n = 0
+  for (let i = 0; i < totals.length; i++) if (sameSubstance(totals[i].formula, f)) n++
+  if (n === 0) return NO_PRODUCTS
+  const out: Product[] = new Array(n)
+  for (let i = 0, j = 0; i < totals.length; i++) if (sameSubstance(totals[i].formula, f)) out[j++] = totals[i]
+  return out
+}
+
+/** The products formed in one compartment, in order (as productsOf makes its list). */
+function formedIn(products: readonly Product[], compartment: string): Product[] {
+  let n = 0
+  for (let i = 0; i < products.length; i++) if (products[i].compartment === compartment) n++
+  if (n === 0) return NO_PRODUCTS
+  const out: Product[] = new Array(n)
+  for (let i = 0, j = 0; i < products.length; i++) if (products[i].compartment === compartment) out[j++] = products[i]
+  return out
 }
 
 /** The product a step is run for: a deposited metal or a follow-on product (hydroxide, acid), else chlorine, else hydrogen. */

@@ -268,6 +268,11 @@ function ionKey(formula: string, charge: number): string {
 
 class Solution {
   amt = new Map<string, number>()
+  /**
+   * The species in amt, in its order (entries are only ever added): read by index, as a for-of over
+   * the Map's keys made an iterator result per entry on every time step (measured).
+   */
+  keys: string[] = []
   solids = new Map<string, number>()
   /** Water at the start, mol: the drag leaves at least a tenth of it. */
   initialWater = 0
@@ -277,7 +282,9 @@ class Solution {
     return this.amt.get(k) ?? 0
   }
   add(k: string, v: number): void {
-    const n = (this.amt.get(k) ?? 0) + v
+    const cur = this.amt.get(k)
+    if (cur === undefined) this.keys.push(k)
+    const n = (cur ?? 0) + v
     this.amt.set(k, n < 0 && n > -1e-12 ? 0 : n)
     this.known = false
   }
@@ -300,7 +307,8 @@ class Solution {
   }
   private massUncached(): number {
     let m = 0
-    for (const k of this.amt.keys()) {
+    for (let i = 0; i < this.keys.length; i++) {
+      const k = this.keys[i]
       const v = this.amt.get(k)!
       m += v * (k === WATER ? M_WATER : species(k).mass)
     }
@@ -320,7 +328,8 @@ class Solution {
     let catMol = 0
     let anKey: string | undefined
     let anMol = 0
-    for (const k of this.amt.keys()) {
+    for (let i = 0; i < this.keys.length; i++) {
+      const k = this.keys[i]
       const v = this.amt.get(k)!
       if (k === WATER || v <= 1e-12) continue
       const c = species(k).charge
@@ -380,7 +389,8 @@ class Solution {
     const m = this.mainSalt()
     // Built by loops (same keys, same order as the Maps): one snapshot per compartment per step.
     const species: Record<string, number> = {}
-    for (const k of this.amt.keys()) {
+    for (let i = 0; i < this.keys.length; i++) {
+      const k = this.keys[i]
       const v = this.amt.get(k)!
       if (v > 1e-15) species[k] = v
     }
@@ -413,6 +423,7 @@ class Solution {
   clone(): Solution {
     const s = new Solution(this.name)
     s.amt = new Map(this.amt)
+    s.keys = this.keys.slice()
     s.solids = new Map(this.solids)
     return s
   }
@@ -765,7 +776,8 @@ const OXYGEN_SIDE_ANIONS = ['CO3^2-', 'HCO3^-', 'OH^-']
 /** The charge the cations of a solution carry, mol; with the protons or without them. */
 function cationCharge(s: Solution, protons = true): number {
   let t = 0
-  for (const k of s.amt.keys()) {
+  for (let i = 0; i < s.keys.length; i++) {
+    const k = s.keys[i]
     if (k === WATER || (!protons && k === 'H^+')) continue
     const z = species(k).charge
     if (z > 0) t += s.amt.get(k)! * Math.abs(z)
@@ -823,6 +835,20 @@ function electrodeReactions(input: SimInput, st: State, a: Solution, c: Solution
   }
 }
 
+// The separator's carriers of one time step (see transport).
+const carrierFromAnode: boolean[] = []
+const carrierKey: string[] = []
+const carrierZ: number[] = []
+const carrierK: number[] = []
+let carrierCount = 0
+function addCarrier(fromAnode: boolean, key: string, z: number, k: number): void {
+  carrierFromAnode[carrierCount] = fromAnode
+  carrierKey[carrierCount] = key
+  carrierZ[carrierCount] = z
+  carrierK[carrierCount] = k
+  carrierCount++
+}
+
 /** The separator carries dne of charge: ions share it by |z|·c·λ; cations drag water. */
 function transport(type: 'cation-exchange' | 'anion-exchange' | 'diaphragm', a: Solution, c: Solution, dne: number, drag: number): boolean {
   const Va = a.volumeL()
@@ -840,30 +866,39 @@ function transport(type: 'cation-exchange' | 'anion-exchange' | 'diaphragm', a: 
     c.add('H^+', h)
     left -= h
   }
-  // Carriers: cations leave the anode side toward the cathode; anions leave the cathode side.
-  const carriers: { from: Solution; to: Solution; key: string; z: number; k: number }[] = []
+  // Carriers: cations leave the anode side toward the cathode; anions leave the cathode side. Kept
+  // in module-level lists (a count says how many; transport does not call itself): this runs on
+  // every time step, and an object per carrier per step was most of the simulation's garbage.
+  carrierCount = 0
   if (type !== 'anion-exchange') {
-    for (const k of a.amt.keys()) {
+    for (let i = 0; i < a.keys.length; i++) {
+      const k = a.keys[i]
       const v = a.amt.get(k)!
       const z = k === WATER ? 0 : species(k).charge
-      if (z > 0 && v > 0) carriers.push({ from: a, to: c, key: k, z, k: z * (v / Va) * lambda(k) })
+      if (z > 0 && v > 0) addCarrier(true, k, z, z * (v / Va) * lambda(k))
     }
   }
   if (type !== 'cation-exchange') {
-    for (const k of c.amt.keys()) {
+    for (let i = 0; i < c.keys.length; i++) {
+      const k = c.keys[i]
       const v = c.amt.get(k)!
       const z = k === WATER ? 0 : species(k).charge
-      if (z < 0 && v > 0) carriers.push({ from: c, to: a, key: k, z: -z, k: -z * (v / Vc) * lambda(k) })
+      if (z < 0 && v > 0) addCarrier(false, k, -z, -z * (v / Vc) * lambda(k))
     }
   }
-  const sum = carriers.reduce((t, x) => t + x.k, 0)
+  let sum = 0
+  for (let i = 0; i < carrierCount; i++) sum = sum + carrierK[i]
   if (sum <= 0 || left <= 0) return false
   let cationEq = 0
-  for (const x of carriers) {
-    const eq = Math.min((left * x.k) / sum, x.from.get(x.key) * x.z)
-    x.from.add(x.key, -eq / x.z)
-    x.to.add(x.key, eq / x.z)
-    if (x.from === a) cationEq += eq
+  for (let i = 0; i < carrierCount; i++) {
+    const from = carrierFromAnode[i] ? a : c
+    const to = carrierFromAnode[i] ? c : a
+    const key = carrierKey[i]
+    const z = carrierZ[i]
+    const eq = Math.min((left * carrierK[i]) / sum, from.get(key) * z)
+    from.add(key, -eq / z)
+    to.add(key, eq / z)
+    if (from === a) cationEq += eq
   }
   // Electro-osmotic drag: water moves with the cations.
   const wanted = drag * cationEq
