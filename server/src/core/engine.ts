@@ -439,6 +439,25 @@ interface Book {
   steps: StepProducts[]
 }
 
+/**
+ * The key of the most plentiful ion of a side that may cross a separator: of the cations (`cations`)
+ * neither the proton nor a depositable metal, of the anions any but hydroxide. On a tie the first in
+ * the map's order (as a stable sort by amount, largest first, would give); undefined when none is
+ * left. A scan by index over the keys, not a sort.
+ */
+function mostPlentiful(ions: Map<string, { mol: number }>, cations: boolean): string | undefined {
+  let bestKey: string | undefined
+  let best = 0
+  ions.forEach((v, k) => {
+    if ((cations ? k === 'H' || k in DEPOSITABLE : k === 'OH') || !(v.mol > 1e-15)) return
+    if (bestKey === undefined || v.mol > best) {
+      bestKey = k
+      best = v.mol
+    }
+  })
+  return bestKey
+}
+
 /** Walk the steps, forming products and drawing on the feeds; `full`: every step at 100 %. */
 function bookkeep(input: EngineInput, r: EngineResult, full: boolean): Book {
   const key = full ? 'mol100' : 'mol'
@@ -453,21 +472,9 @@ function bookkeep(input: EngineInput, r: EngineResult, full: boolean): Book {
   // The cation that crosses a cation-exchange separator: the most plentiful non-proton cation of the
   // anode side. The most plentiful of the ions that qualify; on a tie the first in the map's order
   // (as a stable sort by amount, largest first, would give). A scan, not a sort: this runs for every step.
-  const mostPlentiful = <V extends { mol: number }>(ions: Map<string, V>, skip: (key: string) => boolean): [string, V] | undefined => {
-    let bestKey: string | undefined
-    let best: V | undefined
-    for (const k of ions.keys()) {
-      const v = ions.get(k)!
-      if (skip(k) || !(v.mol > 1e-15)) continue
-      if (best === undefined || v.mol > best.mol) {
-        bestKey = k
-        best = v
-      }
-    }
-    return best === undefined ? undefined : [bestKey!, best]
-  }
-  const crossing = (side: Ions) => mostPlentiful(side.cations, (el) => el === 'H' || el in DEPOSITABLE)
-  const crossingAnion = (side: Ions) => mostPlentiful(side.anions, (n) => n === 'OH')
+  // Keys, not [key, value] pairs, and no predicate closure: this runs for every step.
+  const crossing = (side: Ions) => mostPlentiful(side.cations, true)
+  const crossingAnion = (side: Ions) => mostPlentiful(side.anions, false)
   // What a product is (all but its amount) is the same on every step: made once per bookkeeping and
   // shared by the steps' ledgers, not written again (with its equation and reason) for each step.
   type Described = Omit<Product, 'mol' | 'mol100'>
@@ -534,10 +541,11 @@ function bookkeep(input: EngineInput, r: EngineResult, full: boolean): Book {
       if (hco3.mol <= 1e-15) note(`the bicarbonate in ${a} is used up; the ${a} turns acidic`)
     }
     if (left > 0) {
-      const an = crossingAnion(aIons)
-      if (an && an[0] !== 'HCO3' && an[0] !== 'CO3') {
-        const acid = acidFormula(an[0], an[1].charge)
-        put({ formula: acid, electrons: -an[1].charge, compartment: a, origin: 'follow-on', gas: false, equation: `${-an[1].charge === 1 ? '' : -an[1].charge + ' '}H⁺ + ${an[0]}${sup(an[1].charge)} → ${acid}`, reason: `the protons made at the anode stay in ${a} with its ${an[0]}${sup(an[1].charge)}` }, left / -an[1].charge)
+      const anKey = crossingAnion(aIons)
+      const an = anKey === undefined ? undefined : aIons.anions.get(anKey)!
+      if (anKey !== undefined && an && anKey !== 'HCO3' && anKey !== 'CO3') {
+        const acid = acidFormula(anKey, an.charge)
+        put({ formula: acid, electrons: -an.charge, compartment: a, origin: 'follow-on', gas: false, equation: `${-an.charge === 1 ? '' : -an.charge + ' '}H⁺ + ${anKey}${sup(an.charge)} → ${acid}`, reason: `the protons made at the anode stay in ${a} with its ${anKey}${sup(an.charge)}` }, left / -an.charge)
       }
       const hIon = aIons.cations.get('H') ?? { mol: 0, charge: 1 }
       hIon.mol += left
@@ -624,7 +632,7 @@ function bookkeep(input: EngineInput, r: EngineResult, full: boolean): Book {
       if (chlorine > 0 && freeBase > 0 && acidLeft <= 0) {
         const cat = crossing(cIons)
         const hypo = Math.min(chlorine, freeBase / 2)
-        const name = cat ? `${cat[0]}ClO` : 'ClO^-'
+        const name = cat !== undefined ? `${cat}ClO` : 'ClO^-'
         put({ formula: name, electrons: 2, compartment: c, origin: 'follow-on', gas: false, equation: 'Cl₂ + 2 OH⁻ → ClO⁻ + Cl⁻ + H₂O', reason: 'in one compartment the chlorine meets the hydroxide made at the cathode' }, hypo)
         chlorine -= hypo
       }
@@ -634,10 +642,10 @@ function bookkeep(input: EngineInput, r: EngineResult, full: boolean): Book {
       if (chlorine > 0) put({ formula: 'Cl2', electrons: 2, compartment: a, origin: 'anode', gas: true, equation: anode.equation, reason: anode.reason }, chlorine)
       const carried = eta * ne // charge carried by the intended ions; the rest by H⁺ or OH⁻
       if (r.coupling === 'cation') {
-        const cat = crossing(aIons)
+        const el = crossing(aIons)
+        const v = el === undefined ? undefined : aIons.cations.get(el)!
         let moved = 0
-        if (cat) {
-          const [el, v] = cat
+        if (el !== undefined && v) {
           moved = Math.min(carried / v.charge, v.mol)
           v.mol -= moved
           if (moved * v.charge < carried - 1e-15) note(`${el}${sup(v.charge)} in ${a} ran out; protons carry the rest of the current and the hydroxide stops growing`)
@@ -661,19 +669,20 @@ function bookkeep(input: EngineInput, r: EngineResult, full: boolean): Book {
         }
         // The charge not carried by the crossing cations is carried by protons from the anode side;
         // the protons that stay behind acidify it.
-        const kept = Math.max(0, protons - (ne - moved * (cat ? cat[1].charge : 0)))
+        const kept = Math.max(0, protons - (ne - moved * (v ? v.charge : 0)))
         anodeAcid(kept)
       } else {
-        const an = crossingAnion(cIons)
+        const name = crossingAnion(cIons)
+        const v = name === undefined ? undefined : cIons.anions.get(name)!
         let moved = 0
-        if (an) {
-          const [name, v] = an
+        if (name !== undefined && v) {
           const z = -v.charge
           moved = Math.min(carried / z, v.mol)
           v.mol -= moved
           if (moved * z < carried - 1e-15) note(`${name}${sup(v.charge)} in ${c} ran out; hydroxide carries the rest of the current`)
-          const cat = crossing(cIons)
-          if (cat) put({ formula: hydroxideFormula(cat[0], cat[1].charge), electrons: cat[1].charge, compartment: c, origin: 'follow-on', gas: false, equation: 'the cations left behind pair with the hydroxide made at the cathode', reason: `${name}${sup(v.charge)} leaves ${c} through the anion-exchange separator` }, (moved * z) / cat[1].charge)
+          const catKey = crossing(cIons)
+          const cat = catKey === undefined ? undefined : cIons.cations.get(catKey)!
+          if (catKey !== undefined && cat) put({ formula: hydroxideFormula(catKey, cat.charge), electrons: cat.charge, compartment: c, origin: 'follow-on', gas: false, equation: 'the cations left behind pair with the hydroxide made at the cathode', reason: `${name}${sup(v.charge)} leaves ${c} through the anion-exchange separator` }, (moved * z) / cat.charge)
           const acid = acidFormula(name, v.charge)
           put({ formula: acid, electrons: z, compartment: a, origin: 'follow-on', gas: false, equation: `${name}${sup(v.charge)} (through the separator) + ${z === 1 ? '' : z + ' '}H⁺ → ${acid}`, reason: `${name}${sup(v.charge)} crosses the anion-exchange separator from ${c} and pairs with the protons made at the anode` }, Math.min(moved, protons / z))
         }
