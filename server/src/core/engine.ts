@@ -319,7 +319,8 @@ class Ledger {
   add(p: Omit<Product, 'mol' | 'mol100'>, mol: number): void {
     if (!(mol > 0)) return
     let cur: Product | undefined
-    for (const x of this.products) {
+    for (let i = 0; i < this.products.length; i++) {
+      const x = this.products[i]
       if (x.formula === p.formula && x.compartment === p.compartment) {
         cur = x
         break

@@ -1196,7 +1196,8 @@ class Evaluator {
     let energy = 0
     const charged = this.m.steps.filter((x) => x.chargeC !== undefined)
     const lastCharged = charged.at(-1)
-    for (const s of this.m.steps) {
+    for (let idx = 0; idx < this.m.steps.length; idx++) {
+      const s = this.m.steps[idx]
       if (s.seconds !== undefined) t.seconds += s.seconds
       if (s.chargeC === undefined) {
         energyKnown = false
@@ -1376,7 +1377,8 @@ class Evaluator {
     const electrons = sim.steps.reduce((t, x) => t + x.electronMol, 0)
     this.simSums = { formed, electrons }
     const targetAt = new Map(m.targets.map((t) => [t.line, t]))
-    for (const y of m.yields) {
+    for (let idx = 0; idx < m.yields.length; idx++) {
+      const y = m.yields[idx]
       if (!sameSubstance(main.formula, y.formula.formula)) continue
       const node = m.tree.lines[y.line]
       const q = y.quantity
@@ -1638,7 +1640,8 @@ class Evaluator {
   /** Salts (formula texts) charged into a compartment, or anywhere when no compartment is named. */
   private saltsIn(comp: string | undefined): string[] {
     const out: string[] = []
-    for (const n of this.m.tree.lines) {
+    for (let idx = 0; idx < this.m.tree.lines.length; idx++) {
+      const n = this.m.tree.lines[idx]
       if (n.kind !== 'charge') continue
       if (comp && n.compartment.text !== comp) continue
       for (const it of n.items) if (!WATER_NAMES.has(it.formula.text)) out.push(it.formula.text)

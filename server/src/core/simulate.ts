@@ -518,7 +518,9 @@ function precipitate(s: Solution, T: number): readonly string[] {
   // Most time steps precipitate nothing: they share one empty list (a list is made on the first salt).
   let out: string[] = NOTHING_PRECIPITATED
   let water: number | undefined
-  for (const x of salts()) {
+  const table = salts()
+  for (let i = 0; i < table.length; i++) {
+    const x = table[i]
     const present = Math.min(s.get(x.cat) / x.nc, s.get(x.an) / x.na)
     if (!(present > 0) && !(s.solids.get(x.key) ?? 0)) continue
     // The temperature changes only when the cell heats: read the table again only then.
@@ -634,7 +636,9 @@ export function simulate(input: SimInput): SimResult {
   const seriesEvery = Math.max(totalSeconds / 200, 1)
   let nextSeries = 0
 
-  for (const step of input.steps) {
+  // Indexed loops in the simulation (a for-of made an iterator and a result per element here).
+  for (let si = 0; si < input.steps.length; si++) {
+    const step = input.steps[si]
     const seconds = step.seconds ?? 0
     const I = step.currentA ?? 0
     const stepStart = main ? main.measure(state) : 0
@@ -669,7 +673,8 @@ export function simulate(input: SimInput): SimResult {
         electrodeReactions(input, state, a, c, dne, input.anode.kind === 'chlorine' && divided && sep === 'cation-exchange' ? 1 : step.efficiency)
         runElectrons += dne
         if (divided && sep === 'diaphragm') mix(a, c, dt, state.mixedIn)
-        for (const s of sols) {
+        for (let k = 0; k < sols.length; k++) {
+          const s = sols[k]
           equilibrate(s, dt, state.T, state.gases)
           const crystallised = precipitate(s, state.T)
           for (let i = 0; i < crystallised.length; i++) {
@@ -695,7 +700,8 @@ export function simulate(input: SimInput): SimResult {
         if (chlorideInitial > 0 && a.get('Cl^-') < 0.01 * chlorideInitial) {
           event('feed-exhausted', 'chloride', time, step.line, `the chloride in ${a.name} is used up: the anode evolves oxygen from here on`, a.name)
         }
-        for (const s of sols) {
+        for (let k = 0; k < sols.length; k++) {
+          const s = sols[k]
           const ph = s.ph()
           const before = lastPh.get(s.name)!
           if (before >= 7 && ph < 7) event('ph', `acid:${s.name}`, time, step.line, `${s.name} turns acidic (pH ${ph.toFixed(1)})`, s.name)
@@ -703,7 +709,8 @@ export function simulate(input: SimInput): SimResult {
           if (before >= 2 && ph < 2) event('ph', `strong:${s.name}`, time, step.line, `${s.name} falls below pH 2`, s.name)
           lastPh.set(s.name, ph)
         }
-        for (const t of input.targets) {
+        for (let k = 0; k < input.targets.length; k++) {
+          const t = input.targets[k]
           const s = byName.get(t.compartment)
           const p = s?.productOf(t.formula)
           if (!s || !p) continue

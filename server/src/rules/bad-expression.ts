@@ -10,7 +10,8 @@ export const badExpression: Rule = {
   check({ model }) {
     // A loop over every quantity of the document: most have no failure and cost nothing.
     const out: Diagnostic[] = []
-    for (const q of model.quantities) {
+    for (let idx = 0; idx < model.quantities.length; idx++) {
+      const q = model.quantities[idx]
       const f = q.failure
       if (!f || f.reason === 'unknown-name') continue
       const start = q.expr.start + f.start

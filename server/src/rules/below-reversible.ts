@@ -13,7 +13,10 @@ export const belowReversible: Rule = {
     if (!v || v.reversible <= 0) return []
     // The voltage clause of each step line, looked up once (not searched for every step).
     const voltageOn = new Map<number, (typeof model.quantities)[number]>()
-    for (const x of model.quantities) if (x.keyword?.text === 'voltage' && !voltageOn.has(x.line)) voltageOn.set(x.line, x)
+    for (let idx = 0; idx < model.quantities.length; idx++) {
+      const x = model.quantities[idx]
+      if (x.keyword?.text === 'voltage' && !voltageOn.has(x.line)) voltageOn.set(x.line, x)
+    }
     return model.steps.flatMap((s) => {
       if (s.voltageV === undefined || s.voltageV >= v.reversible) return []
       const q = voltageOn.get(s.line)

@@ -10,7 +10,8 @@ export const duplicateName: Rule = {
   check({ model }) {
     const seen = new Map<string, number>()
     const out: Diagnostic[] = []
-    for (const d of model.declarations) {
+    for (let idx = 0; idx < model.declarations.length; idx++) {
+      const d = model.declarations[idx]
       const key = `${d.of}:${d.tok.text}`
       const first = seen.get(key)
       if (first === undefined) {

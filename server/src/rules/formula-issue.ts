@@ -6,7 +6,8 @@ import type { Model } from '../core/model'
 
 export function formulaDiagnostics(model: Model, codes: readonly FormulaIssue['code'][], ruleCode: string): Diagnostic[] {
   const out: Diagnostic[] = []
-  for (const ff of model.formulas) {
+  for (let idx = 0; idx < model.formulas.length; idx++) {
+    const ff = model.formulas[idx]
     if (ff.isWater) continue
     for (const issue of ff.formula.issues) {
       if (!codes.includes(issue.code)) continue

@@ -12,7 +12,8 @@ export const outOfRange: Rule = {
   summary: 'A value outside its physical range: negative amounts, zero durations, efficiency above 100 %, ice or steam.',
   check({ model }) {
     const out: Diagnostic[] = []
-    for (const q of model.quantities) {
+    for (let idx = 0; idx < model.quantities.length; idx++) {
+      const q = model.quantities[idx]
       if (q.number === undefined || !q.constraint) continue
       const v = q.number
       if (q.constraint === 'fraction') {

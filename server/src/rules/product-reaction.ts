@@ -10,7 +10,8 @@ export const productReaction: Rule = {
   summary: 'A planned or measured product that no electrode reaction forms, or one named in the wrong compartment.',
   check({ model }) {
     const out: Diagnostic[] = []
-    for (const y of model.yields) {
+    for (let idx = 0; idx < model.yields.length; idx++) {
+      const y = model.yields[idx]
       if (y.noReaction) {
         out.push({
           code: 'product-reaction',

@@ -9,7 +9,8 @@ export const stepIncomplete: Rule = {
   summary: 'A step that does not say enough to compute its charge.',
   check({ model }) {
     const out: Diagnostic[] = []
-    for (const s of model.steps) {
+    for (let idx = 0; idx < model.steps.length; idx++) {
+      const s = model.steps[idx]
       const end = { start: s.span.end, end: s.span.end }
       if (!s.hasDurationClause) {
         out.push({

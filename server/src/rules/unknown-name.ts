@@ -13,7 +13,8 @@ export const unknownName: Rule = {
     const out: Diagnostic[] = []
     const valueNames = [...model.values.keys()]
     const laterLets = new Map(model.declarations.filter((d) => d.of === 'value').map((d) => [d.tok.text, d.line]))
-    for (const q of model.quantities) {
+    for (let idx = 0; idx < model.quantities.length; idx++) {
+      const q = model.quantities[idx]
       const f = q.failure
       if (!f || f.reason !== 'unknown-name' || !f.name) continue
       const span = { start: q.expr.start + f.start, end: q.expr.start + f.end }
@@ -31,7 +32,8 @@ export const unknownName: Rule = {
       })
     }
     const compartments = [...model.compartments.keys()]
-    for (const r of model.refs) {
+    for (let idx = 0; idx < model.refs.length; idx++) {
+      const r = model.refs[idx]
       if (r.resolved) continue
       const guess = closest(r.tok.text, compartments)
       out.push({

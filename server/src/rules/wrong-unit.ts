@@ -14,7 +14,8 @@ export const wrongUnit: Rule = {
   check({ model }) {
     // A loop over every quantity of the document: most are of the kind expected and cost nothing.
     const out: Diagnostic[] = []
-    for (const q of model.quantities) {
+    for (let idx = 0; idx < model.quantities.length; idx++) {
+      const q = model.quantities[idx]
       if (q.value === undefined || q.kind === undefined || q.anyKind) continue
       if (q.kind !== 'other' && q.expected.includes(q.kind)) continue
       const got =

@@ -166,7 +166,8 @@ export const currentDensityLimit: Rule = {
     // The parts and their limits are the same for every step: found once.
     const limited = limitedParts(model)
     if (limited.length === 0) return out
-    for (const s of model.steps) {
+    for (let idx = 0; idx < model.steps.length; idx++) {
+      const s = model.steps[idx]
       if (s.currentA === undefined || !(s.currentA > 0)) continue
       const over = overLimits(limited, s.currentA)
       if (over.length === 0) continue
