@@ -584,16 +584,19 @@ function parseClauses(s: Cursor): Clause[] {
     }
   }
   pieceCount = putTrimmed(pieces, pieceCount, line, at, to)
-  for (let k = 0; k < pieceCount; k += 2) {
-    if (pieces[k] === pieces[k + 1]) throw new LineError('an empty item between `,`', pieces[k], pieces[k] + 1)
+  try {
+    for (let k = 0; k < pieceCount; k += 2) {
+      if (pieces[k] === pieces[k + 1]) throw new LineError('an empty item between `,`', pieces[k], pieces[k] + 1)
+    }
+    for (let k = 0; k < pieceCount; k += 2) {
+      splitClauseWords(line, pieces[k], pieces[k + 1])
+      for (let p = 0; p < partCount; p += 2) clauses.push(clauseAt(s, line, parts[p], parts[p + 1]))
+    }
+  } finally {
+    // A line of thousands of commas does not leave its room behind, read or refused.
+    if (pieces.length > 256) pieces.length = 0
+    if (parts.length > 256) parts.length = 0
   }
-  for (let k = 0; k < pieceCount; k += 2) {
-    splitClauseWords(line, pieces[k], pieces[k + 1])
-    for (let p = 0; p < partCount; p += 2) clauses.push(clauseAt(s, line, parts[p], parts[p + 1]))
-  }
-  // A line of thousands of commas does not leave its room behind.
-  if (pieces.length > 256) pieces.length = 0
-  if (parts.length > 256) parts.length = 0
   // A copy at its size: the list grown by push keeps room for 16 more clauses (130 bytes per step).
   return clauses.slice()
 }
