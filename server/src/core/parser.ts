@@ -141,16 +141,15 @@ export const LETTERS_AT = /[A-Za-z-]+/y
 const SPACE_OR_STOP_RE = /[\s,:]/g
 
 const isLetter = (c: number) => (c >= 65 && c <= 90) || (c >= 97 && c <= 122)
+/** A character of a name after its first (`[A-Za-z0-9_-]`, the `[\w-]` of the patterns). */
+const isNameRest = (c: number) => isLetter(c) || (c >= 48 && c <= 57) || c === 95 || c === 45
 
 /** Where a name as IDENT_AT reads it, starting at `i`, ends; `i` when none starts there. */
 export function identEnd(s: string, i: number): number {
   const first = s.charCodeAt(i)
   if (!(isLetter(first) || first === 95)) return i
   let j = i + 1
-  for (; j < s.length; j++) {
-    const c = s.charCodeAt(j)
-    if (!(isLetter(c) || (c >= 48 && c <= 57) || c === 95 || c === 45)) break
-  }
+  while (j < s.length && isNameRest(s.charCodeAt(j))) j++
   return j
 }
 
@@ -176,14 +175,7 @@ export function lettersEnd(s: string, i: number): number {
 
 /** Where a keyword (`[A-Za-z][A-Za-z-]*`) that starts at `from` ends; `from` when none starts there. */
 function keywordEnd(s: string, from: number): number {
-  let i = from
-  const first = s.charCodeAt(i)
-  if (!((first >= 65 && first <= 90) || (first >= 97 && first <= 122))) return from
-  for (i++; i < s.length; i++) {
-    const c = s.charCodeAt(i)
-    if (!((c >= 65 && c <= 90) || (c >= 97 && c <= 122) || c === 45)) break
-  }
-  return i
+  return isLetter(s.charCodeAt(from)) ? lettersEnd(s, from + 1) : from
 }
 
 /** The statement keyword written at [from, to), as the one shared string (no copy per line), or undefined. */
@@ -466,10 +458,7 @@ export function trailingIn(t: string): { from: number; nameStart: number; nameEn
   let e = t.length
   while (e > 0 && isWhiteSpace(t.charCodeAt(e - 1))) e--
   let n = e
-  for (; n > 0; n--) {
-    const c = t.charCodeAt(n - 1)
-    if (!(isLetter(c) || (c >= 48 && c <= 57) || c === 95 || c === 45)) break
-  }
+  while (n > 0 && isNameRest(t.charCodeAt(n - 1))) n--
   // The name starts with a letter or `_`, right after white space.
   if (n === e || !(isLetter(t.charCodeAt(n)) || t.charCodeAt(n) === 95)) return undefined
   let w = n
@@ -673,8 +662,7 @@ export function wordAt(s: string, i: number, words: readonly string[], end = s.l
     if (i + w.length > end || !s.startsWith(w, i)) continue
     // What follows the word, within [0, end): past `end` reads as nothing.
     const c = i + w.length < end ? s.charCodeAt(i + w.length) : NaN
-    const wordChar = c === 95 || c === 45 || (c >= 48 && c <= 57) || (c >= 65 && c <= 90) || (c >= 97 && c <= 122)
-    if (!wordChar) return true
+    if (!isNameRest(c)) return true
   }
   return false
 }
