@@ -444,7 +444,8 @@ interface Book {
  * The key of the most plentiful ion of a side that may cross a separator: of the cations (`cations`)
  * neither the proton nor a depositable metal, of the anions any but hydroxide. On a tie the first in
  * the map's order (as a stable sort by amount, largest first, would give); undefined when none is
- * left. A scan by index over the keys, not a sort.
+ * left. One scan of the map (forEach), not a sort, and the key rather than a [key, value] pair:
+ * this runs for every step.
  */
 function mostPlentiful(ions: Map<string, { mol: number }>, cations: boolean): string | undefined {
   let bestKey: string | undefined
@@ -471,9 +472,7 @@ function bookkeep(input: EngineInput, r: EngineResult, full: boolean): Book {
   const a = anode.compartment
   const c = cathode.compartment
   // The cation that crosses a cation-exchange separator: the most plentiful non-proton cation of the
-  // anode side. The most plentiful of the ions that qualify; on a tie the first in the map's order
-  // (as a stable sort by amount, largest first, would give). A scan, not a sort: this runs for every step.
-  // Keys, not [key, value] pairs, and no predicate closure: this runs for every step.
+  // anode side (see mostPlentiful); the anion that crosses an anion-exchange one likewise.
   const crossing = (side: Ions) => mostPlentiful(side.cations, true)
   const crossingAnion = (side: Ions) => mostPlentiful(side.anions, false)
   // What a product is (all but its amount) is the same on every step: made once per bookkeeping and

@@ -1523,7 +1523,7 @@ class Evaluator {
     const comp = compName ? this.m.compartments.get(compName) : undefined
     const engine = this.m.engine
     const cellKnown = !!engine?.anode && !!engine.cathode
-    const formed = cellKnown ? productsOf(engine!.totals, f) : NO_PRODUCTS
+    const formed = cellKnown ? pick(engine!.totals, isSubstance, f) : NONE
     // Without a described cell, fall back to the usual reaction for the product.
     const fallback = cellKnown ? undefined : productReaction(f, this.saltsIn(compName))
     const gas = formed.length ? formed[0].gas : fallback?.ok ? fallback.reaction.gas : KNOWN_GASES.has(ff.tok.text)
@@ -1576,7 +1576,7 @@ class Evaluator {
         return
       }
       if (comp) {
-        here = formedIn(formed, comp.name)
+        here = pick(formed, formedIn, comp.name)
         if (here.length === 0) {
           y.wrongCompartment = { formedIn: [...new Set(formed.map((p) => p.compartment))] }
           here = formed
@@ -1651,30 +1651,26 @@ class Evaluator {
   }
 }
 
-const NO_PRODUCTS: Product[] = Object.freeze([]) as unknown as Product[]
+/** The one empty list that `pick` and a yield without a described cell share (frozen: only read). */
+const NONE: never[] = Object.freeze([]) as unknown as never[]
 
 /**
- * The products that are this substance (same elements and charge), in order: a list at its size,
- * made by a loop (this runs for every yield line), or one shared empty list when there are none.
+ * The entries of `xs` that pass `test` (given `arg`), in order: a list at its size, made by loops
+ * with a module-level test (this runs for every yield line: no closure, no list grown by push), or
+ * one shared empty list when none pass.
  */
-function productsOf(totals: readonly Product[], f: Formula): Product[] {
+function pick<T, A>(xs: readonly T[], test: (x: T, arg: A) => boolean, arg: A): T[] {
   let n = 0
-  for (let i = 0; i < totals.length; i++) if (sameSubstance(totals[i].formula, f)) n++
-  if (n === 0) return NO_PRODUCTS
-  const out: Product[] = new Array(n)
-  for (let i = 0, j = 0; i < totals.length; i++) if (sameSubstance(totals[i].formula, f)) out[j++] = totals[i]
+  for (let i = 0; i < xs.length; i++) if (test(xs[i], arg)) n++
+  if (n === 0) return NONE
+  const out: T[] = new Array(n)
+  for (let i = 0, j = 0; i < xs.length; i++) if (test(xs[i], arg)) out[j++] = xs[i]
   return out
 }
-
-/** The products formed in one compartment, in order (as productsOf makes its list). */
-function formedIn(products: readonly Product[], compartment: string): Product[] {
-  let n = 0
-  for (let i = 0; i < products.length; i++) if (products[i].compartment === compartment) n++
-  if (n === 0) return NO_PRODUCTS
-  const out: Product[] = new Array(n)
-  for (let i = 0, j = 0; i < products.length; i++) if (products[i].compartment === compartment) out[j++] = products[i]
-  return out
-}
+/** A product that is this substance (same elements and charge). */
+const isSubstance = (p: Product, f: Formula) => sameSubstance(p.formula, f)
+/** A product formed in this compartment. */
+const formedIn = (p: Product, compartment: string) => p.compartment === compartment
 
 /** The product a step is run for: a deposited metal or a follow-on product (hydroxide, acid), else chlorine, else hydrogen. */
 function mainProduct(products: Product[]): Product | undefined {

@@ -291,8 +291,6 @@ function compile(text: string, shortcut = true): CompileResult {
         names.push({ name, start: at, end: at + name.length, isUnit })
         if (isUnit && !unitSymbols.includes(name)) unitSymbols = unitSymbols === NO_UNITS ? oneUnit(name) : [...unitSymbols, name]
       }
-      // An expression of thousands of names does not leave its room behind.
-      if (symbolNames.length > 256) symbolNames.length = symbolAts.length = 0
       // A copy at its size: the list grown by push keeps room for 16 more names (130 bytes per
       // expression, kept with the compiled expression).
       return { ok: true, tree: simple, names: names.slice(), unitSymbols, lastInputs: undefined, lastResult: undefined }
@@ -497,6 +495,7 @@ export function simpleTree(t: string, record = false): MathNode | undefined {
 let rt = ''
 let ri = 0
 let recording = false
+// At most one name per two characters of an expression (400 at most, MAX_EXPRESSION_LENGTH): small.
 const symbolNames: string[] = []
 const symbolAts: number[] = []
 let symbolCount = 0
@@ -1183,7 +1182,7 @@ function kindOfUncached(v: Unit): Kind | 'other' {
   const exact = key === undefined ? undefined : kindByDimensions.get(key)
   if (exact !== undefined) return exact
   // Powers that are not exact (from sqrt) are compared with mathjs's tolerance.
-  for (const [k, ref] of kindRefs) if (v.equalBase(ref)) return k
+  for (const [k, ref] of kindRefs) if (sameBase(v as unknown as UnitParts, ref as unknown as UnitParts)) return k
   if (v.dimensions.every((d) => d === 0)) return 'dimensionless'
   return 'other'
 }
