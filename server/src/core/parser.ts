@@ -283,7 +283,7 @@ function parseLine(raw: string, base: number, line: number, inCell: boolean): Li
       }
       case 'conditions': {
         s.ws()
-        const items = s.splitTop(',', s.rest()).map((t) => s.needExpr(t, 'a temperature or pressure'))
+        const items = s.commaItems().map((t) => s.needExpr(t, 'a temperature or pressure'))
         return { kind: 'conditions', line, indent, span, comment, items }
       }
       case 'let': {
@@ -355,7 +355,7 @@ function parseLine(raw: string, base: number, line: number, inCell: boolean): Li
         s.ws()
         s.lit(':', '`:` after the compartment name')
         s.ws()
-        const items = s.splitTop(',', s.rest()).map((t) => parseChargeItem(s, t))
+        const items = s.commaItems().map((t) => parseChargeItem(s, t))
         if (items.length === 0) throw new LineError('expected what is charged, e.g. `NaCl 300 g, water 1 L`', s.pos)
         return { kind: 'charge', line, indent, span, comment, compartment, items }
       }
@@ -537,9 +537,10 @@ export function splitAlternate(t: Tok): { main: Tok; alternate?: Tok } {
   }
 }
 
-// Where the pieces of a step line stand: [start, end) pairs of offsets in the line, filled by
-// parseClauses (not re-entrant, like the cursor), so that splitting a line makes no tokens. The
-// arrays keep their room from line to line; the counts say how much of them is in use.
+// Where the comma pieces of a line (splitAtCommas) and the clause parts of a step piece
+// (splitClauseWords) stand: [start, end) pairs of offsets in the line, so that splitting a line
+// makes no tokens. Not re-entrant, like the cursor: each user reads them before splitting again.
+// The arrays keep their room from line to line; the counts say how much of them is in use.
 const pieces: number[] = []
 let pieceCount = 0
 const parts: number[] = []
@@ -556,10 +557,28 @@ function parseClauses(s: Cursor): Clause[] {
   const from = s.pos
   const to = line.length
   s.pos = to
-  let blank = true
-  for (let i = from; i < to && blank; i++) blank = isWhiteSpace(line.charCodeAt(i))
-  if (blank) throw new LineError('expected what the step does, e.g. `current 2 A for 3 h`', to)
-  // Pieces between commas at the top level (as splitTop splits), trimmed; an empty one is an error.
+  if (isBlank(line, from, to)) throw new LineError('expected what the step does, e.g. `current 2 A for 3 h`', to)
+  try {
+    splitAtCommas(line, from, to)
+    for (let k = 0; k < pieceCount; k += 2) {
+      splitClauseWords(line, pieces[k], pieces[k + 1])
+      for (let p = 0; p < partCount; p += 2) clauses.push(clauseAt(s, line, parts[p], parts[p + 1]))
+    }
+  } finally {
+    // A line of thousands of commas does not leave its room behind, read or refused.
+    if (pieces.length > 256) pieces.length = 0
+    if (parts.length > 256) parts.length = 0
+  }
+  // A copy at its size: the list grown by push keeps room for 16 more clauses (130 bytes per step).
+  return clauses.slice()
+}
+
+/**
+ * Split line[from, to) at the commas outside parentheses and brackets into `pieces` (pieceCount
+ * offsets, a trimmed [start, end) pair per piece); an empty piece is an error. The one comma
+ * splitter of the parser (step clauses, charge items, conditions, optional clauses).
+ */
+function splitAtCommas(line: string, from: number, to: number): void {
   pieceCount = 0
   let depth = 0
   let at = from
@@ -573,21 +592,15 @@ function parseClauses(s: Cursor): Clause[] {
     }
   }
   pieceCount = putTrimmed(pieces, pieceCount, line, at, to)
-  try {
-    for (let k = 0; k < pieceCount; k += 2) {
-      if (pieces[k] === pieces[k + 1]) throw new LineError('an empty item between `,`', pieces[k], pieces[k] + 1)
-    }
-    for (let k = 0; k < pieceCount; k += 2) {
-      splitClauseWords(line, pieces[k], pieces[k + 1])
-      for (let p = 0; p < partCount; p += 2) clauses.push(clauseAt(s, line, parts[p], parts[p + 1]))
-    }
-  } finally {
-    // A line of thousands of commas does not leave its room behind, read or refused.
-    if (pieces.length > 256) pieces.length = 0
-    if (parts.length > 256) parts.length = 0
+  for (let k = 0; k < pieceCount; k += 2) {
+    if (pieces[k] === pieces[k + 1]) throw new LineError('an empty item between `,`', pieces[k], pieces[k] + 1)
   }
-  // A copy at its size: the list grown by push keeps room for 16 more clauses (130 bytes per step).
-  return clauses.slice()
+}
+
+/** Whether line[from, to) is white space only (or empty). */
+function isBlank(line: string, from: number, to: number): boolean {
+  for (let i = from; i < to; i++) if (!isWhiteSpace(line.charCodeAt(i))) return false
+  return true
 }
 
 /** [a, b) trimmed of white space, written as a pair of offsets at `count` in `out`; the new count. */
@@ -665,17 +678,6 @@ export function wordAt(s: string, i: number, words: readonly string[], end = s.l
     if (!isNameRest(c)) return true
   }
   return false
-}
-
-function trimTok(t: Tok, from: number, to: number): Tok {
-  // White space as trim() reads it, found by index: one copy of the trimmed text, not three.
-  const s = t.text
-  let a = from
-  while (a < to && isWhiteSpace(s.charCodeAt(a))) a++
-  let b = to
-  while (b > a && isWhiteSpace(s.charCodeAt(b - 1))) b--
-  const start = t.start + a
-  return { text: s.slice(a, b), start, end: start + (b - a) }
 }
 
 /** A reading position in one line's content. Offsets in errors are relative to the line start. */
@@ -804,7 +806,7 @@ class Cursor {
     if (this.pos >= this.s.length) return out
     this.lit(',', `\`, ${keys[0]} ...\` or the end of the line`)
     this.ws()
-    for (const part of this.splitTop(',', this.rest())) {
+    for (const part of this.commaItems()) {
       const m = /^([A-Za-z-]+)(\s+)(.+)$/s.exec(part.text)
       const word = m ? m[1] : part.text.split(/\s/)[0]
       const at = part.start - this.base
@@ -840,26 +842,22 @@ class Cursor {
     return t
   }
 
-  /** Split a token at a separator outside parentheses and brackets; parts are trimmed. */
-  splitTop(sep: string, t: Tok): Tok[] {
-    if (t.text.trim() === '') return []
-    const out: Tok[] = []
-    let depth = 0
-    let from = 0
-    for (let i = 0; i < t.text.length; i++) {
-      const c = t.text[i]
-      if (c === '(' || c === '[') depth++
-      else if (c === ')' || c === ']') depth--
-      else if (c === sep && depth <= 0) {
-        out.push(trimTok(t, from, i))
-        from = i + 1
-      }
+  /**
+   * The rest of the line from the cursor, split at commas outside parentheses and brackets (parts
+   * trimmed; none when the rest is blank); the cursor moves to the end of the line.
+   */
+  commaItems(): Tok[] {
+    const from = this.pos
+    this.pos = this.s.length
+    if (isBlank(this.s, from, this.s.length)) return []
+    try {
+      splitAtCommas(this.s, from, this.s.length)
+      const out: Tok[] = new Array(pieceCount / 2)
+      for (let k = 0; k < pieceCount; k += 2) out[k / 2] = this.tok(pieces[k], pieces[k + 1])
+      return out
+    } finally {
+      if (pieces.length > 256) pieces.length = 0
     }
-    out.push(trimTok(t, from, t.text.length))
-    for (const p of out) {
-      if (p.text === '') throw new LineError(`an empty item between \`${sep}\``, p.start - this.base, p.start - this.base + 1)
-    }
-    return out
   }
 }
 
