@@ -1,6 +1,7 @@
 // bad-expression: an expression that cannot be read, uses something the sandbox refuses, is too
 // long or too deep, or cannot be computed (e.g. adding a mass to a volume).
 import type { Diagnostic } from '../core/diagnostics'
+import { spanOf } from '../core/positions'
 import type { Rule } from './rule'
 
 export const badExpression: Rule = {
@@ -20,7 +21,7 @@ export const badExpression: Rule = {
         code: 'bad-expression',
         severity: 'error',
         message: `${f.message} (in ${q.role})`,
-        span: end > start ? { start, end } : { start: q.expr.start, end: q.expr.end },
+        span: end > start ? { start, end } : spanOf(q.expr),
         fixes: [],
       })
     }

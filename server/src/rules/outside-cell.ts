@@ -21,13 +21,14 @@ export const outsideCell: Rule = {
       const part = 'inCell' in n
       if (part && !n.inCell) {
         const lineStart = index.lineStart(n.line)
+        const kw = keywordOf(n)
         out.push({
           code: 'outside-cell',
           severity: 'warning',
           message: hasCell
-            ? `\`${keywordOf(n)?.text}\` describes the cell: ${continuesCell ? 'indent it under the `cell` line' : 'move it, indented, under the `cell` line'}`
-            : `\`${keywordOf(n)?.text}\` describes the cell: put it, indented, under a \`cell\` line`,
-          span: spanOf(keywordOf(n) ?? n.span),
+            ? `\`${kw?.text}\` describes the cell: ${continuesCell ? 'indent it under the `cell` line' : 'move it, indented, under the `cell` line'}`
+            : `\`${kw?.text}\` describes the cell: put it, indented, under a \`cell\` line`,
+          span: spanOf(kw ?? n.span),
           fixes: continuesCell && n.indent === 0 ? [fix('Indent under `cell`', { start: lineStart, end: lineStart }, '  ')] : [],
         })
       }
